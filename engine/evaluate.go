@@ -1,0 +1,245 @@
+package engine
+
+import (
+	"fmt"
+	"math"
+	"sort"
+)
+
+// Model is a communication model (MODEL.md §3 and §4).
+type Model int
+
+const (
+	// Radio is global communication: the partner learns of the exit at once.
+	Radio Model = iota
+	// FaceToFace is local communication: agents share what they know only when they meet.
+	FaceToFace
+)
+
+// Models lists both models in display order.
+var Models = []Model{Radio, FaceToFace}
+
+func (m Model) String() string {
+	switch m {
+	case Radio:
+		return "radio"
+	case FaceToFace:
+		return "face-to-face"
+	}
+	return fmt.Sprintf("Model(%d)", int(m))
+}
+
+// ParseModel parses "radio" or "face-to-face".
+func ParseModel(s string) (Model, error) {
+	switch s {
+	case "radio":
+		return Radio, nil
+	case "face-to-face":
+		return FaceToFace, nil
+	}
+	return 0, fmt.Errorf("engine: model: %q: want radio or face-to-face", s)
+}
+
+// Both is the Finder value when both agents reach the exit at the same first moment.
+const Both = 2
+
+// Nobody is the Finder value for a candidate that no route visits.
+const Nobody = -1
+
+// ExitResult is what happens when the exit is at one candidate node.
+type ExitResult struct {
+	Node    int
+	FoundAt float64 // t(x); +Inf when never visited
+	Finder  int     // 0, 1, Both or Nobody
+	EvacAt  float64 // evac(x); +Inf when never visited
+	// Face-to-face only: where and when the finder meets its partner (MeetAt
+	// is FoundAt when no meeting is needed).
+	MeetAt    float64
+	MeetPoint Point
+}
+
+// Report is the evaluation of one plan under one model (MODEL.md §7).
+type Report struct {
+	Model        Model
+	Planner      string
+	Exits        []ExitResult // one per candidate, in node order
+	Worst        float64      // max evac; +Inf for an incomplete plan, 0 without candidates
+	WorstExit    int          // node index of the worst exit (ties: lowest index), -1 without candidates
+	Expected     float64      // Σ p·evac, when HasExpected
+	HasExpected  bool
+	Bounds       Bounds
+	Gap          float64 // Worst/LB − 1 (0 when LB is 0)
+	Complete     bool
+	Unvisited    []int // candidates no route visits
+	RouteLengths [2]float64
+}
+
+// ExitFor returns the result row for node v, and whether v is a candidate.
+func (r *Report) ExitFor(v int) (ExitResult, bool) {
+	i := sort.Search(len(r.Exits), func(i int) bool { return r.Exits[i].Node >= v })
+	if i < len(r.Exits) && r.Exits[i].Node == v {
+		return r.Exits[i], true
+	}
+	return ExitResult{}, false
+}
+
+// Evaluate evaluates plan p on site s under model m exactly (MODEL.md §2–§5).
+// With equal speeds, or a partner no faster than the finder, it is
+// O((n + W) log W) for n nodes and W route segments; otherwise the
+// face-to-face search scans segments forward from the discovery and stops once
+// no later meeting can help, O(n·W) in the worst case.
+func Evaluate(s *Site, p *Plan, m Model) (*Report, error) {
+	trs, err := s.Trajectories(p)
+	if err != nil {
+		return nil, err
+	}
+	return evaluateTrajectories(s, trs, p.Planner, m), nil
+}
+
+// EvaluateBoth evaluates p under both models, expanding the routes once.
+func EvaluateBoth(s *Site, p *Plan) (radio, f2f *Report, err error) {
+	trs, err := s.Trajectories(p)
+	if err != nil {
+		return nil, nil, err
+	}
+	return evaluateTrajectories(s, trs, p.Planner, Radio), evaluateTrajectories(s, trs, p.Planner, FaceToFace), nil
+}
+
+func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) *Report {
+	r := &Report{Model: m, Planner: planner, WorstExit: -1, Complete: true, Bounds: ComputeBounds(s)}
+	r.RouteLengths = [2]float64{trs[0].Length, trs[1].Length}
+	fv := [2][]float64{trs[0].FirstVisits(), trs[1].FirstVisits()}
+	for v := 0; v < s.N; v++ {
+		if !s.Candidate[v] {
+			continue
+		}
+		ex := exitResult(s, trs, fv, v, m)
+		if ex.Finder == Nobody {
+			r.Complete = false
+			r.Unvisited = append(r.Unvisited, v)
+		}
+		if r.WorstExit < 0 || ex.EvacAt > r.Worst {
+			r.Worst, r.WorstExit = ex.EvacAt, v
+		}
+		r.Exits = append(r.Exits, ex)
+		if s.HasProb && s.Prob[v] > 0 {
+			r.Expected += s.Prob[v] * ex.EvacAt
+		}
+	}
+	r.HasExpected = s.HasProb
+	if r.Bounds.LB > 0 {
+		r.Gap = r.Worst/r.Bounds.LB - 1
+	}
+	return r
+}
+
+func exitResult(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) ExitResult {
+	t0, t1 := fv[0][x], fv[1][x]
+	t := math.Min(t0, t1)
+	ex := ExitResult{Node: x, FoundAt: t, EvacAt: math.Inf(1), MeetAt: math.Inf(1), MeetPoint: At(x)}
+	switch {
+	case math.IsInf(t, 1):
+		ex.Finder = Nobody
+		return ex
+	case math.Abs(t0-t1) <= tol(t):
+		ex.Finder = Both
+		ex.EvacAt, ex.MeetAt = t, t
+		return ex
+	case t0 < t1:
+		ex.Finder = 0
+	default:
+		ex.Finder = 1
+	}
+	f := ex.Finder
+	partner := trs[1-f]
+	if m == Radio {
+		d := s.NodeDist(partner.PositionAt(t), x)
+		ex.EvacAt = t + d/s.Speed[1-f]
+		ex.MeetAt = t
+		ex.MeetPoint = At(x)
+		return ex
+	}
+	ex.MeetAt, ex.MeetPoint, ex.EvacAt = intercept(s, partner, x, t, s.Speed[f], s.Speed[1-f])
+	return ex
+}
+
+// intercept solves MODEL.md §4 for a finder at node x at time t with speed sf
+// and an uninformed partner on trajectory tr with speed sp: the meeting time
+// τ, the meeting point and the evacuation time min τ + d(π(τ),x)/min(sf,sp)
+// over τ ≥ t with d(x, π(τ)) ≤ sf·(τ − t).
+func intercept(s *Site, tr *Trajectory, x int, t, sf, sp float64) (float64, Point, float64) {
+	slow := math.Min(sf, sp)
+	// the partner's trajectory for this exit: segments up to the first
+	// rendezvous at or after t, then stationary there.
+	nseg := len(tr.Segs)
+	final := tr.FinalPoint()
+	tailFrom := tr.End
+	if k := sort.SearchFloat64s(tr.RVTime, t-tol(t)); k < len(tr.RVTime) {
+		nseg = tr.RVSegs[k]
+		final = tr.RVAt[k]
+		tailFrom = tr.RVTime[k]
+	}
+	segs := tr.Segs[:nseg]
+	// first segment that ends at or after t
+	i0 := sort.Search(len(segs), func(i int) bool { return segs[i].T1 >= t })
+
+	bestT, bestP, bestE := math.Inf(1), Point{}, math.Inf(1)
+	consider := func(tau float64, p Point, d float64) {
+		e := tau + d/slow
+		if e < bestE-1e-12 {
+			bestT, bestP, bestE = tau, p, e
+		}
+	}
+	// the stationary tail
+	{
+		dEnd := s.NodeDist(final, x)
+		tau := math.Max(math.Max(tailFrom, t), t+dEnd/sf)
+		consider(tau, final, dEnd)
+	}
+	// segment g restricted to [max(t,T0), T1]: D linear in τ.
+	trySeg := func(g *Seg) {
+		a := math.Max(t, g.T0)
+		b := g.T1
+		if b < a {
+			return
+		}
+		pa, pb := s.segPoint(g, a), s.segPoint(g, b)
+		da, db := s.NodeDist(pa, x), s.NodeDist(pb, x)
+		// feasibility h(τ) = sf(τ−t) − D(τ), linear between a and b
+		ha, hb := sf*(a-t)-da, sf*(b-t)-db
+		ok := func(h, tau float64) bool { return h >= -1e-9*math.Max(1, tau) }
+		if ok(ha, a) {
+			consider(a, pa, da)
+		}
+		if ok(hb, b) {
+			consider(b, pb, db)
+		}
+		if (ha < 0) != (hb < 0) && b > a {
+			// the boundary crossing
+			z := a + (b-a)*(-ha)/(hb-ha)
+			pz := s.segPoint(g, z)
+			consider(z, pz, s.NodeDist(pz, x))
+		}
+	}
+	if sp <= sf {
+		// feasibility never decreases and the objective never decreases on
+		// the feasible part: the earliest feasible τ is optimal. Binary search
+		// the first segment whose end is feasible.
+		h := func(i int) float64 {
+			g := &segs[i]
+			return sf*(g.T1-t) - s.NodeDist(s.segPoint(g, g.T1), x)
+		}
+		j := i0 + sort.Search(len(segs)-i0, func(k int) bool { return h(i0+k) >= -1e-9*math.Max(1, segs[i0+k].T1) })
+		if j < len(segs) {
+			trySeg(&segs[j])
+		}
+	} else {
+		for i := i0; i < len(segs); i++ {
+			if math.Max(t, segs[i].T0) >= bestE {
+				break // τ ≥ evac already reached: no later meeting helps
+			}
+			trySeg(&segs[i])
+		}
+	}
+	return bestT, bestP, bestE
+}

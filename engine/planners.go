@@ -1,0 +1,159 @@
+package engine
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+	"time"
+)
+
+// Options configure a planner. The zero value is useful: seed 0, the
+// planner's default budget, no progress reports.
+type Options struct {
+	// Seed feeds the planner's random source (search planners only); the same
+	// seed gives the same plan.
+	Seed int64
+	// Budget is the wall-clock time a search planner may use; 0 means its default.
+	Budget time.Duration
+	// Iterations caps a search planner's iterations; 0 means no cap (Budget rules).
+	Iterations int
+	// Progress, when set, receives reports from long-running planners. It is
+	// called on the planner's goroutine.
+	Progress func(Progress)
+}
+
+// Progress is a progress report of a long-running planner.
+type Progress struct {
+	Done float64 // fraction of the budget used, 0..1
+	Best float64 // best worst case found so far (seconds)
+	Note string  // what it is doing, in a few words
+}
+
+// PlannerInfo describes a registered planner.
+type PlannerInfo struct {
+	Name    string
+	Models  []Model
+	Summary string
+	// Search marks planners that search (exhaustive, improve): slower, with
+	// budgets and progress; the "best available" choice leaves them out.
+	Search bool
+}
+
+// Supports reports whether the planner works under model m.
+func (p PlannerInfo) Supports(m Model) bool {
+	for _, x := range p.Models {
+		if x == m {
+			return true
+		}
+	}
+	return false
+}
+
+type plannerFunc func(ctx context.Context, s *Site, m Model, opt Options) (*Plan, error)
+
+type registered struct {
+	info PlannerInfo
+	fn   plannerFunc
+}
+
+var registry = map[string]registered{}
+
+func register(info PlannerInfo, fn plannerFunc) {
+	if _, dup := registry[info.Name]; dup {
+		panic("engine: planner registered twice: " + info.Name)
+	}
+	registry[info.Name] = registered{info, fn}
+}
+
+// ErrUnknownPlanner is returned for a planner name that is not registered.
+var ErrUnknownPlanner = errors.New("engine: unknown planner")
+
+// ErrModelNotSupported is returned when a planner does not work under the asked model.
+var ErrModelNotSupported = errors.New("engine: planner does not support this model")
+
+// Planners returns every registered planner, sorted by name.
+func Planners() []PlannerInfo {
+	out := make([]PlannerInfo, 0, len(registry))
+	for _, r := range registry {
+		out = append(out, r.info)
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i].Name < out[j].Name })
+	return out
+}
+
+// PlannersFor returns the planners that support model m, sorted by name.
+func PlannersFor(m Model) []PlannerInfo {
+	var out []PlannerInfo
+	for _, p := range Planners() {
+		if p.Supports(m) {
+			out = append(out, p)
+		}
+	}
+	return out
+}
+
+// MakePlan runs the named planner on s for model m.
+func MakePlan(ctx context.Context, s *Site, name string, m Model, opt Options) (*Plan, error) {
+	r, ok := registry[name]
+	if !ok {
+		return nil, fmt.Errorf("%w: %q", ErrUnknownPlanner, name)
+	}
+	if !r.info.Supports(m) {
+		return nil, fmt.Errorf("%w: %s under %s", ErrModelNotSupported, name, m)
+	}
+	p, err := r.fn(ctx, s, m, opt)
+	if err != nil {
+		return nil, err
+	}
+	p.Planner, p.Model = name, m
+	return p, nil
+}
+
+// BestPlan runs every non-search planner that supports m and returns the plan
+// with the smallest worst case (ties: the smaller expected time, then the
+// planner name), with its report. This is the "best available" default.
+func BestPlan(ctx context.Context, s *Site, m Model) (*Plan, *Report, error) {
+	var bestP *Plan
+	var bestR *Report
+	for _, info := range PlannersFor(m) {
+		if info.Search {
+			continue
+		}
+		if err := ctx.Err(); err != nil {
+			return nil, nil, err
+		}
+		p, err := MakePlan(ctx, s, info.Name, m, Options{})
+		if err != nil {
+			return nil, nil, err
+		}
+		r, err := Evaluate(s, p, m)
+		if err != nil {
+			return nil, nil, fmt.Errorf("engine: planner %s made an invalid plan: %w", info.Name, err)
+		}
+		if bestR == nil || better(r, bestR) {
+			bestP, bestR = p, r
+		}
+	}
+	if bestP == nil {
+		return nil, nil, fmt.Errorf("engine: no planner for model %s", m)
+	}
+	return bestP, bestR, nil
+}
+
+// better reports whether report a beats b: smaller worst case, then smaller
+// expected time. Planner names break remaining ties through the caller's order.
+func better(a, b *Report) bool {
+	if d := a.Worst - b.Worst; math.Abs(d) > tol(b.Worst) {
+		return d < 0
+	}
+	if a.HasExpected && b.HasExpected && math.Abs(a.Expected-b.Expected) > tol(b.Expected) {
+		return a.Expected < b.Expected
+	}
+	return false
+}
+
+// Better reports whether report a is strictly better than b (smaller worst
+// case, then smaller expected time, within a relative 1e-9).
+func Better(a, b *Report) bool { return better(a, b) }
