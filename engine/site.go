@@ -67,6 +67,8 @@ type Site struct {
 
 	boundsOnce sync.Once
 	bounds     Bounds
+	statsOnce  sync.Once
+	st         *subtreeStats
 }
 
 // NewSite validates sc and builds a Site. It is O(n log n) in the worst case

@@ -1,0 +1,198 @@
+package engine
+
+import (
+	"context"
+	"fmt"
+)
+
+func init() {
+	register(PlannerInfo{Name: "together", Models: Models,
+		Summary: "both walk one depth-first tour together, the branch with the farthest junction last (worst ≤ 2W − L)"},
+		planTogether)
+	register(PlannerInfo{Name: "opposite-tours", Models: Models,
+		Summary: "one walks a depth-first tour forwards, the other the same tour backwards; they meet at its midpoint (radio: worst ≤ 1.5·W; face to face, with a rendezvous at the midpoint: worst ≤ 2W)"},
+		planOpposite)
+	register(PlannerInfo{Name: "spine-split", Models: []Model{Radio},
+		Summary: "the walk down the path to the farthest junction is cut where half the side work is done; one takes the first part, the other the rest (worst ≤ W + L2 ≤ 4/3 of the lower bound)"},
+		planSpine)
+}
+
+func (o ChildOrder) String() string {
+	switch o {
+	case OrderIndex:
+		return "corridor order"
+	case OrderDeepLast:
+		return "farthest branch last"
+	case OrderDeepFirst:
+		return "farthest branch first"
+	case OrderLightFirst:
+		return "lightest branch first"
+	}
+	return fmt.Sprintf("ChildOrder(%d)", int(o))
+}
+
+// pickBest evaluates every plan under m and returns the best (ties: the first).
+func pickBest(ctx context.Context, s *Site, m Model, plans []*Plan) (*Plan, error) {
+	var best *Plan
+	var bestR *Report
+	for _, p := range plans {
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+		r, err := Evaluate(s, p, m)
+		if err != nil {
+			return nil, fmt.Errorf("engine: internal planner error: %w", err)
+		}
+		if bestR == nil || better(r, bestR) {
+			best, bestR = p, r
+		}
+	}
+	return best, nil
+}
+
+// lastNewCandidate returns the walk index at which the last candidate is
+// first reached (0 when there are none).
+func lastNewCandidate(s *Site, w *Walk) int {
+	seen := make(map[int]bool)
+	last := 0
+	for i, v := range w.Nodes {
+		if s.Candidate[v] && !seen[v] {
+			seen[v] = true
+			last = i
+		}
+	}
+	return last
+}
+
+// planTogether: both agents walk the same depth-first tour, stopping when
+// the last candidate is reached. Tries every child order.
+func planTogether(ctx context.Context, s *Site, m Model, _ Options) (*Plan, error) {
+	var plans []*Plan
+	for _, o := range AllOrders {
+		w := s.Tour(o)
+		end := lastNewCandidate(s, w)
+		p := &Plan{Note: "one depth-first tour walked together, " + o.String()}
+		for a := 0; a < 2; a++ {
+			b := newRoute(s, a)
+			b.toNodes(w.Nodes[:end+1])
+			p.Routes[a] = b.route()
+		}
+		plans = append(plans, p)
+	}
+	return pickBest(ctx, s, m, plans)
+}
+
+// planOpposite: agent 0 walks the tour forwards, agent 1 backwards; they
+// stop where they meet (at time 2W/(s0+s1), the midpoint with equal speeds),
+// a rendezvous in the face-to-face model. Tries every child order and, with
+// unequal speeds, both directions.
+func planOpposite(ctx context.Context, s *Site, m Model, _ Options) (*Plan, error) {
+	var plans []*Plan
+	dirs := []bool{false}
+	if s.Speed[0] != s.Speed[1] {
+		dirs = append(dirs, true)
+	}
+	for _, o := range AllOrders {
+		w := s.Tour(o)
+		for _, swap := range dirs {
+			fw, bw := 0, 1
+			if swap {
+				fw, bw = 1, 0
+			}
+			split := w.Len() * s.Speed[fw] / (s.Speed[0] + s.Speed[1])
+			p := &Plan{Note: fmt.Sprintf("%s walks the tour forwards, %s backwards, %s", s.Names[fw], s.Names[bw], o)}
+			f, b := newRoute(s, fw), newRoute(s, bw)
+			f.walkPrefix(s, w, split)
+			b.walkSuffixReversed(s, w, split)
+			if m == FaceToFace {
+				f.rendezvous()
+				b.rendezvous()
+				p.Note += "; rendezvous where they meet"
+			}
+			p.Routes[fw], p.Routes[bw] = f.route(), b.route()
+			plans = append(plans, p)
+		}
+	}
+	return pickBest(ctx, s, m, plans)
+}
+
+// spineWalk is the walk down P that explores every side subtree as it
+// passes, with the side work done at each walk node.
+type spineWalk struct {
+	Walk
+	side []float64 // side work (length walked off P) up to each node
+	onP  []bool
+}
+
+func (s *Site) spineWalk(o ChildOrder) *spineWalk {
+	P := s.PathToFar()
+	onP := make([]bool, s.N)
+	for _, v := range P {
+		onP[v] = true
+	}
+	sw := &spineWalk{onP: onP}
+	for _, v := range P {
+		sw.push(s, v)
+		s.appendTour(&sw.Walk, v, o, func(c int) bool { return onP[c] })
+	}
+	sw.side = make([]float64, len(sw.Nodes))
+	for k := 1; k < len(sw.Nodes); k++ {
+		d := sw.Arc[k] - sw.Arc[k-1]
+		sw.side[k] = sw.side[k-1]
+		if !(onP[sw.Nodes[k-1]] && onP[sw.Nodes[k]]) {
+			sw.side[k] += d
+		}
+	}
+	return sw
+}
+
+// cutAt returns the arclength of the walk at which the side work reaches target.
+func (sw *spineWalk) cutAt(target float64) float64 {
+	for k := 1; k < len(sw.Nodes); k++ {
+		if sw.side[k] >= target && sw.side[k] > sw.side[k-1] {
+			return sw.Arc[k-1] + (target - sw.side[k-1])
+		}
+	}
+	return 0
+}
+
+// planSpine: the spine split of MODEL.md §6. The first agent walks the spine
+// walk up to the cut (where the given share of the side work is done), then
+// straight back to P and down to its far end; the second goes straight to
+// the cut and walks the rest. Tries child orders, the half cut and the
+// speed-weighted cut, and both role assignments.
+func planSpine(ctx context.Context, s *Site, m Model, _ Options) (*Plan, error) {
+	b := ComputeBounds(s)
+	var plans []*Plan
+	shares := []float64{0.5}
+	if s.Speed[0] != s.Speed[1] {
+		shares = append(shares, s.Speed[0]/(s.Speed[0]+s.Speed[1]), s.Speed[1]/(s.Speed[0]+s.Speed[1]))
+	}
+	for _, o := range []ChildOrder{OrderIndex, OrderDeepLast, OrderDeepFirst} {
+		sw := s.spineWalk(o)
+		total := sw.side[len(sw.side)-1]
+		for _, share := range shares {
+			cut := sw.cutAt(share * total)
+			cp, ci := sw.PointAt(s, cut)
+			// where the cut's branch leaves P
+			attach := sw.Nodes[ci]
+			for !sw.onP[attach] {
+				attach = int(s.Parent[attach])
+			}
+			for first := 0; first < 2; first++ {
+				p := &Plan{Note: fmt.Sprintf("%s takes the spine walk up to %.0f%% of the side work, %s the rest, %s",
+					s.Names[first], share*100, s.Names[1-first], o)}
+				ra, rb := newRoute(s, first), newRoute(s, 1-first)
+				ra.toNodes(sw.Nodes[:ci+1])
+				ra.to(cp)
+				ra.to(At(attach))
+				ra.to(At(b.Far))
+				rb.to(cp)
+				rb.toNodes(sw.Nodes[ci+1:])
+				p.Routes[first], p.Routes[1-first] = ra.route(), rb.route()
+				plans = append(plans, p)
+			}
+		}
+	}
+	return pickBest(ctx, s, m, plans)
+}

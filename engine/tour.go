@@ -1,0 +1,225 @@
+package engine
+
+import (
+	"math"
+	"sort"
+)
+
+// ChildOrder names a rule for the order in which a depth-first tour visits
+// the children of a node. Planners try several and keep the best plan.
+type ChildOrder int
+
+const (
+	// OrderIndex visits children in corridor order.
+	OrderIndex ChildOrder = iota
+	// OrderDeepLast visits the child whose subtree reaches farthest last.
+	OrderDeepLast
+	// OrderDeepFirst visits the child whose subtree reaches farthest first.
+	OrderDeepFirst
+	// OrderLightFirst visits the child with the least corridor length below it first.
+	OrderLightFirst
+)
+
+// AllOrders lists every child order.
+var AllOrders = []ChildOrder{OrderIndex, OrderDeepLast, OrderDeepFirst, OrderLightFirst}
+
+// subtreeStats holds, per node, the search-tree corridor length below it
+// (including its parent corridor) and the farthest candidate depth below it.
+type subtreeStats struct {
+	weight []float64 // corridor length of the search tree inside v's subtree plus v's parent corridor
+	reach  []float64 // largest Depth of a search-tree node in v's subtree
+}
+
+func (s *Site) stats() *subtreeStats {
+	s.statsOnce.Do(func() {
+		st := &subtreeStats{weight: make([]float64, s.N), reach: make([]float64, s.N)}
+		for i := s.N - 1; i >= 0; i-- {
+			v := s.Order[i]
+			if !s.InSearch[v] {
+				continue
+			}
+			st.reach[v] = math.Max(st.reach[v], s.Depth[v])
+			if p := s.Parent[v]; p >= 0 {
+				st.weight[v] += s.EW[s.ParentEdge[v]]
+				st.weight[p] += st.weight[v]
+				st.reach[p] = math.Max(st.reach[p], st.reach[v])
+			}
+		}
+		s.st = st
+	})
+	return s.st
+}
+
+// SearchChildren returns the children of v inside the search tree, ordered by o.
+func (s *Site) SearchChildren(v int, o ChildOrder) []int {
+	var out []int
+	for _, c := range s.Children(v) {
+		if s.InSearch[c] {
+			out = append(out, int(c))
+		}
+	}
+	st := s.stats()
+	key := func(c int) float64 {
+		switch o {
+		case OrderDeepLast:
+			return st.reach[c]
+		case OrderDeepFirst:
+			return -st.reach[c]
+		case OrderLightFirst:
+			return st.weight[c]
+		}
+		return 0
+	}
+	if o != OrderIndex {
+		sort.SliceStable(out, func(i, j int) bool { return key(out[i]) < key(out[j]) })
+	}
+	return out
+}
+
+// Walk is a walk through the tree given as consecutive adjacent nodes, with
+// the arclength at each node.
+type Walk struct {
+	Nodes []int
+	Arc   []float64
+}
+
+// Len is the total length of the walk.
+func (w *Walk) Len() float64 {
+	if len(w.Arc) == 0 {
+		return 0
+	}
+	return w.Arc[len(w.Arc)-1]
+}
+
+func (w *Walk) push(s *Site, v int) {
+	if len(w.Nodes) == 0 {
+		w.Nodes, w.Arc = append(w.Nodes, v), append(w.Arc, 0)
+		return
+	}
+	u := w.Nodes[len(w.Nodes)-1]
+	w.Nodes = append(w.Nodes, v)
+	w.Arc = append(w.Arc, w.Arc[len(w.Arc)-1]+s.EW[s.Edge(u, v)])
+}
+
+// appendTour appends the closed depth-first tour of the search subtree below
+// v (v itself is assumed to be the walk's current end), skipping children
+// for which skip returns true. Iterative: safe for deep trees.
+func (s *Site) appendTour(w *Walk, v int, o ChildOrder, skip func(int) bool) {
+	type frame struct {
+		v    int
+		kids []int
+		i    int
+	}
+	stack := []frame{{v: v, kids: s.SearchChildren(v, o)}}
+	for len(stack) > 0 {
+		f := &stack[len(stack)-1]
+		if f.i == len(f.kids) {
+			stack = stack[:len(stack)-1]
+			if len(stack) > 0 {
+				w.push(s, stack[len(stack)-1].v)
+			}
+			continue
+		}
+		c := f.kids[f.i]
+		f.i++
+		if len(stack) == 1 && skip != nil && skip(c) {
+			continue
+		}
+		w.push(s, c)
+		stack = append(stack, frame{v: c, kids: s.SearchChildren(c, o)})
+	}
+}
+
+// Tour returns the closed depth-first tour of the search tree from the start
+// in child order o. Its length is 2W. O(n log n).
+func (s *Site) Tour(o ChildOrder) *Walk {
+	w := &Walk{}
+	w.push(s, s.Start)
+	s.appendTour(w, s.Start, o, nil)
+	return w
+}
+
+// PointAt returns the point at arclength a along the walk, and the index i of
+// the last walk node at or before it.
+func (w *Walk) PointAt(s *Site, a float64) (Point, int) {
+	if a <= 0 || len(w.Nodes) == 1 {
+		return At(w.Nodes[0]), 0
+	}
+	i := sort.SearchFloat64s(w.Arc, a) // first Arc >= a
+	if i >= len(w.Arc) {
+		return At(w.Nodes[len(w.Nodes)-1]), len(w.Nodes) - 1
+	}
+	if w.Arc[i] == a {
+		return At(w.Nodes[i]), i
+	}
+	u, v := w.Nodes[i-1], w.Nodes[i]
+	return s.Canon(Point{From: u, To: v, Offset: a - w.Arc[i-1]}), i - 1
+}
+
+// routeBuilder builds a route of one agent with tight waypoint times.
+type routeBuilder struct {
+	s     *Site
+	speed float64
+	cur   Point
+	t     float64
+	wps   []Waypoint
+}
+
+func newRoute(s *Site, agent int) *routeBuilder {
+	return &routeBuilder{s: s, speed: s.Speed[agent], cur: At(s.Start)}
+}
+
+// to walks to p at full speed.
+func (b *routeBuilder) to(p Point) {
+	p = b.s.Canon(p)
+	if p == b.cur && len(b.wps) > 0 {
+		return
+	}
+	b.t += b.s.PointDist(b.cur, p) / b.speed
+	b.cur = p
+	b.wps = append(b.wps, Waypoint{P: p, T: b.t})
+}
+
+// toNodes walks along nodes (each adjacent to the previous or reachable by a tree path).
+func (b *routeBuilder) toNodes(nodes []int) {
+	for _, v := range nodes {
+		if b.cur.IsNode() && b.cur.From == v {
+			continue
+		}
+		b.to(At(v))
+	}
+}
+
+// waitUntil waits at the current place until t.
+func (b *routeBuilder) waitUntil(t float64) {
+	if t > b.t {
+		b.t = t
+		b.wps = append(b.wps, Waypoint{P: b.cur, T: t})
+	}
+}
+
+// rendezvous marks the last waypoint (adding one at the current place if needed).
+func (b *routeBuilder) rendezvous() {
+	if len(b.wps) == 0 {
+		b.wps = append(b.wps, Waypoint{P: b.cur, T: b.t})
+	}
+	b.wps[len(b.wps)-1].Rendezvous = true
+}
+
+func (b *routeBuilder) route() Route { return Route{Waypoints: b.wps} }
+
+// walkPrefix walks the walk from its start up to arclength a (a point, maybe inside a corridor).
+func (b *routeBuilder) walkPrefix(s *Site, w *Walk, a float64) {
+	p, i := w.PointAt(s, a)
+	b.toNodes(w.Nodes[:i+1])
+	b.to(p)
+}
+
+// walkSuffixReversed walks the walk backwards from its end down to arclength a.
+func (b *routeBuilder) walkSuffixReversed(s *Site, w *Walk, a float64) {
+	p, i := w.PointAt(s, a)
+	for k := len(w.Nodes) - 1; k > i; k-- {
+		b.toNodes([]int{w.Nodes[k]})
+	}
+	b.to(p)
+}
