@@ -54,6 +54,8 @@ type Trajectory struct {
 	RVTime []float64
 	RVAt   []Point
 	RVSegs []int
+	RVWp   []int     // waypoint index of each rendezvous
+	WpTime []float64 // when the agent leaves each waypoint (its time, or its arrival if later within tolerance)
 	start  Point
 }
 
@@ -90,10 +92,12 @@ func (s *Site) Trajectory(r Route, a int) (*Trajectory, error) {
 			tr.addWait(p, arrive, tEnd)
 		}
 		t, cur = tEnd, p
+		tr.WpTime = append(tr.WpTime, t)
 		if wp.Rendezvous {
 			tr.RVTime = append(tr.RVTime, t)
 			tr.RVAt = append(tr.RVAt, p)
 			tr.RVSegs = append(tr.RVSegs, len(tr.Segs))
+			tr.RVWp = append(tr.RVWp, i)
 		}
 	}
 	tr.End = t
