@@ -315,10 +315,10 @@ func (tr *refTraj) posAt(start refPos, tau float64) refPos {
 }
 
 type refExit struct {
-	node            int
-	found, evac     float64
-	finder          int
-	tA, tB          float64
+	node        int
+	found, evac float64
+	finder      int
+	tA, tB      float64
 }
 
 type refReport struct {
