@@ -49,7 +49,9 @@ func refBounds(rt *refTree) (W, L, LB2 float64) {
 	return
 }
 
-func close9(a, b float64) bool { return math.Abs(a-b) <= 1e-9*math.Max(1, math.Max(math.Abs(a), math.Abs(b))) }
+func close9(a, b float64) bool {
+	return math.Abs(a-b) <= 1e-9*math.Max(1, math.Max(math.Abs(a), math.Abs(b)))
+}
 
 // guarantee is a planner guarantee of MODEL.md §6 as a time. With unequal
 // speeds the lengths are divided by the slower speed (a plan timed for the
