@@ -1,0 +1,10 @@
+// Package canvas is Duosweep's interactive tree editor: the Editor widget
+// draws a site (junctions, corridors, lengths, labels), lets the user add,
+// move, connect and delete junctions with undo and redo, and draws what the
+// plan panel and playback hand it on top (heat colours per exit, the worst
+// exit, agents and their trails, the meeting point).
+//
+// The editor changes an engine.Scenario value and never plans: the ui asks the
+// engine and passes results back through SetOverlay. Geometry (view transform,
+// hit-testing, tidy layout) lives in canvas/geom and has no fyne import.
+package canvas
