@@ -58,12 +58,18 @@ func TestNewSiteRefusals(t *testing.T) {
 		{"length -1", func(sc *engine.Scenario) { sc.Corridors[2].Length = -1 }, "corridors[2].length", "-1"},
 		{"speed 0", func(sc *engine.Scenario) { sc.Agents = []engine.Agent{{Name: "A", Speed: 1}, {Name: "B", Speed: 0}} }, "agents[1].speed", "0"},
 		{"speed -2", func(sc *engine.Scenario) { sc.Agents = []engine.Agent{{Name: "A", Speed: -2}, {Name: "B", Speed: 1}} }, "agents[0].speed", "-2"},
-		{"speed NaN", func(sc *engine.Scenario) { sc.Agents = []engine.Agent{{Name: "A", Speed: math.NaN()}, {Name: "B", Speed: 1}} }, "agents[0].speed", "NaN"},
-		{"speed Inf", func(sc *engine.Scenario) { sc.Agents = []engine.Agent{{Name: "A", Speed: 1}, {Name: "B", Speed: math.Inf(1)}} }, "agents[1].speed", "+Inf"},
+		{"speed NaN", func(sc *engine.Scenario) {
+			sc.Agents = []engine.Agent{{Name: "A", Speed: math.NaN()}, {Name: "B", Speed: 1}}
+		}, "agents[0].speed", "NaN"},
+		{"speed Inf", func(sc *engine.Scenario) {
+			sc.Agents = []engine.Agent{{Name: "A", Speed: 1}, {Name: "B", Speed: math.Inf(1)}}
+		}, "agents[1].speed", "+Inf"},
 		{"three agents", func(sc *engine.Scenario) {
 			sc.Agents = []engine.Agent{{Name: "A", Speed: 1}, {Name: "B", Speed: 1}, {Name: "C", Speed: 1}}
 		}, "agents", "3"},
-		{"same names", func(sc *engine.Scenario) { sc.Agents = []engine.Agent{{Name: "Kit", Speed: 1}, {Name: "Kit", Speed: 1}} }, "agents[1].name", "Kit"},
+		{"same names", func(sc *engine.Scenario) {
+			sc.Agents = []engine.Agent{{Name: "Kit", Speed: 1}, {Name: "Kit", Speed: 1}}
+		}, "agents[1].name", "Kit"},
 		{"negative probability", func(sc *engine.Scenario) {
 			sc.Nodes[1].Probability, sc.Nodes[1].HasProbability = -0.5, true
 			sc.Nodes[2].Probability, sc.Nodes[2].HasProbability = 1.5, true
