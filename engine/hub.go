@@ -1,0 +1,693 @@
+package engine
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"sort"
+)
+
+// The hub-rendezvous planner (face-to-face model). See docs/hub-rendezvous.md
+// for the design, what is proven and what is only measured.
+//
+// c is the weighted centroid of the search tree (Site.Centroid): every point
+// is within W/2 of it. Phase 1: one closed depth-first tour from the start is
+// ordered so that it passes c as close as possible to the moment both agents
+// have used their share of the time T1 = 2W/(v0+v1) (= W with equal speeds);
+// one agent walks it forwards, the other backwards, each as far as it can
+// while still being back at c by T1, where they meet (a rendezvous). Any
+// exit found in phase 1 is then reached by both by T1 + W/(2·slower speed).
+// Phase 2: whatever is still unexplored is searched from c, in one of three
+// ways (together, opposite tours, or split and meet at c again). A handful of
+// variants are built and evaluated exactly; the best is kept, and the plain
+// face-to-face opposite-tours plan is always one of them.
+
+func init() {
+	register(PlannerInfo{Name: "hub-rendezvous", Models: []Model{FaceToFace},
+		Summary: "both explore around the weighted centroid within a time budget of W and meet there, then search what is left from it (worst ≤ 1.5·W when the parts split evenly)"},
+		planHub)
+}
+
+// hubView is the search tree seen from a point r (a node or a corridor
+// point), with needed nodes: those whose subtree (seen from r) holds a target.
+type hubView struct {
+	s        *Site
+	root     Point
+	rootNode int   // r as a node, or -1 for a corridor point
+	top      []int // the root node, or the corridor's two ends
+	par      []int32
+	plen     []float64 // length of the link to the parent (or to r for corridor ends)
+	depth    []float64 // distance from r
+	order    []int32   // preorder (parents first)
+	kidStart []int32
+	kidList  []int32
+	need     []bool
+	weight   []float64 // needed corridor length below v, including its link
+	reach    []float64 // largest depth of a target below v (-1: none)
+	W        float64
+}
+
+func newHubView(s *Site, root Point, target []bool) *hubView {
+	n := s.N
+	root = s.Canon(root)
+	vw := &hubView{s: s, root: root, rootNode: -1,
+		par: make([]int32, n), plen: make([]float64, n), depth: make([]float64, n),
+		need: make([]bool, n), weight: make([]float64, n), reach: make([]float64, n)}
+	seen := make([]bool, n)
+	var stack []int32
+	if root.IsNode() {
+		vw.rootNode = root.From
+		vw.top = []int{root.From}
+		vw.par[root.From] = -1
+		seen[root.From] = true
+		stack = append(stack, int32(root.From))
+	} else {
+		u, du, v, dv := s.ends(root)
+		vw.top = []int{u, v}
+		vw.par[u], vw.par[v] = -1, -1
+		vw.plen[u], vw.plen[v] = du, dv
+		vw.depth[u], vw.depth[v] = du, dv
+		seen[u], seen[v] = true, true
+		stack = append(stack, int32(v), int32(u))
+	}
+	vw.order = make([]int32, 0, n)
+	for len(stack) > 0 {
+		v := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		vw.order = append(vw.order, v)
+		visit := func(w int32, e int32) {
+			if w < 0 || seen[w] || !s.InSearch[w] {
+				return
+			}
+			seen[w] = true
+			vw.par[w] = v
+			vw.plen[w] = s.EW[e]
+			vw.depth[w] = vw.depth[v] + s.EW[e]
+			stack = append(stack, w)
+		}
+		if p := s.Parent[v]; p >= 0 {
+			visit(p, s.ParentEdge[v])
+		}
+		for _, c := range s.Children(int(v)) {
+			visit(c, s.ParentEdge[c])
+		}
+	}
+	// children in CSR
+	vw.kidStart = make([]int32, n+1)
+	for _, v := range vw.order {
+		if p := vw.par[v]; p >= 0 {
+			vw.kidStart[p+1]++
+		}
+	}
+	for i := 1; i <= n; i++ {
+		vw.kidStart[i] += vw.kidStart[i-1]
+	}
+	vw.kidList = make([]int32, vw.kidStart[n])
+	fill := append([]int32(nil), vw.kidStart[:n]...)
+	for _, v := range vw.order {
+		if p := vw.par[v]; p >= 0 {
+			vw.kidList[fill[p]] = v
+			fill[p]++
+		}
+	}
+	for i := range vw.reach {
+		vw.reach[i] = -1
+	}
+	for i := len(vw.order) - 1; i >= 0; i-- {
+		v := vw.order[i]
+		if target[v] {
+			vw.need[v] = true
+			vw.reach[v] = math.Max(vw.reach[v], vw.depth[v])
+		}
+		if !vw.need[v] {
+			continue
+		}
+		vw.weight[v] += vw.plen[v]
+		if p := vw.par[v]; p >= 0 {
+			vw.need[p] = true
+			vw.weight[p] += vw.weight[v]
+			vw.reach[p] = math.Max(vw.reach[p], vw.reach[v])
+		}
+	}
+	for _, t := range vw.top {
+		if vw.need[t] {
+			vw.W += vw.weight[t]
+		}
+	}
+	return vw
+}
+
+// kids returns the needed children of v.
+func (vw *hubView) kids(v int) []int {
+	var out []int
+	for _, c := range vw.kidList[vw.kidStart[v]:vw.kidStart[v+1]] {
+		if vw.need[c] {
+			out = append(out, int(c))
+		}
+	}
+	return out
+}
+
+// hubCycle is a closed walk from the point r through the needed part of a
+// view: r → w.Nodes[0] (lead), the node walk w, then back to r (tail).
+type hubCycle struct {
+	r          Point
+	w          *Walk
+	lead, tail float64
+}
+
+func (cy *hubCycle) Len() float64 { return cy.lead + cy.w.Len() + cy.tail }
+
+// tour returns the closed depth-first tour of the needed part of the view
+// from its root; order(v, kids) returns the children of v in visiting order
+// (kids of -1: the needed corridor ends, for a corridor root).
+func (vw *hubView) tour(order func(v int, kids []int) []int) *hubCycle {
+	s := vw.s
+	cy := &hubCycle{r: vw.root, w: &Walk{}}
+	var tops []int
+	if vw.rootNode >= 0 {
+		tops = []int{vw.rootNode}
+	} else {
+		for _, t := range vw.top {
+			if vw.need[t] {
+				tops = append(tops, t)
+			}
+		}
+		tops = order(-1, tops)
+		if len(tops) == 0 {
+			u, du, _, _ := s.ends(vw.root)
+			tops, cy.lead, cy.tail = []int{u}, du, du
+			cy.w.push(s, u)
+			return cy
+		}
+		cy.lead, cy.tail = vw.plen[tops[0]], vw.plen[tops[len(tops)-1]]
+	}
+	type frame struct {
+		kids []int
+		i    int
+	}
+	for _, t := range tops {
+		cy.w.push(s, t)
+		stack := []frame{{kids: order(t, vw.kids(t))}}
+		path := []int{t}
+		for len(stack) > 0 {
+			f := &stack[len(stack)-1]
+			if f.i == len(f.kids) {
+				stack = stack[:len(stack)-1]
+				path = path[:len(path)-1]
+				if len(path) > 0 {
+					cy.w.push(s, path[len(path)-1])
+				}
+				continue
+			}
+			c := f.kids[f.i]
+			f.i++
+			cy.w.push(s, c)
+			path = append(path, c)
+			stack = append(stack, frame{kids: order(c, vw.kids(c))})
+		}
+		// the frame loop pops t itself without pushing it again: the walk is back at t
+	}
+	return cy
+}
+
+// pointAt returns the point at arclength a along the cycle and the index of
+// the last walk node at or before it (-1 inside the lead).
+func (cy *hubCycle) pointAt(s *Site, a float64) (Point, int) {
+	w := cy.w
+	first, last := w.Nodes[0], w.Nodes[len(w.Nodes)-1]
+	switch {
+	case a <= 0:
+		return cy.r, -1
+	case a < cy.lead:
+		return towards(s, first, cy.r, cy.lead-a), -1
+	case a <= cy.lead+w.Len():
+		return w.PointAt(s, a-cy.lead)
+	case a < cy.Len():
+		return towards(s, last, cy.r, a-cy.lead-w.Len()), len(w.Nodes) - 1
+	}
+	return cy.r, len(w.Nodes) - 1
+}
+
+// towards returns the point at distance x from node v towards the corridor
+// point r (v an end of r's corridor, or r == v).
+func towards(s *Site, v int, r Point, x float64) Point {
+	if r.IsNode() || x <= 0 {
+		return At(v)
+	}
+	other := r.To
+	if other == v {
+		other = r.From
+	}
+	return s.Canon(Point{From: v, To: other, Offset: x})
+}
+
+// breakpoints returns the arclengths where the cycle meets a node or its ends.
+func (cy *hubCycle) breakpoints() []float64 {
+	bp := make([]float64, 0, len(cy.w.Nodes)+2)
+	bp = append(bp, 0)
+	for _, a := range cy.w.Arc {
+		if x := cy.lead + a; x > bp[len(bp)-1] {
+			bp = append(bp, x)
+		}
+	}
+	if L := cy.Len(); L > bp[len(bp)-1] {
+		bp = append(bp, L)
+	}
+	return bp
+}
+
+// reach returns the largest arclength a such that an agent walking the cycle
+// forwards (backwards when back is set: a is then the length walked from the
+// end) to a and then straight to hub needs at most B length, and whether
+// even a = 0 fits. a + d(P(a), hub) never decreases, so a scan over the
+// breakpoints and one linear solve inside a corridor suffice.
+func (cy *hubCycle) reach(s *Site, hub Point, B float64, back bool) (float64, bool) {
+	L := cy.Len()
+	bp := cy.breakpoints()
+	pos := func(a float64) Point { // a = length walked
+		if back {
+			p, _ := cy.pointAt(s, L-a)
+			return p
+		}
+		p, _ := cy.pointAt(s, a)
+		return p
+	}
+	arcs := make([]float64, len(bp)) // lengths walked at the breakpoints, ascending
+	for i := range bp {
+		if back {
+			arcs[i] = L - bp[len(bp)-1-i]
+		} else {
+			arcs[i] = bp[i]
+		}
+	}
+	f := func(a float64) float64 { return a + s.PointDist(pos(a), hub) }
+	Bt := B + 1e-12*math.Max(1, B) // rounding slack: a tour passing hub exactly on budget fits
+	if f(0) > Bt {
+		return 0, false
+	}
+	i := 0
+	for ; i+1 < len(arcs); i++ {
+		if f(arcs[i+1]) > Bt {
+			break
+		}
+	}
+	if i+1 >= len(arcs) {
+		return L, true
+	}
+	// inside one corridor piece f is piecewise linear with slopes 0 and 2
+	// and never decreases: bisect for the last point that fits
+	lo, hi := arcs[i], arcs[i+1]
+	for it := 0; it < 100 && hi-lo > 1e-14*math.Max(1, L); it++ {
+		mid := (lo + hi) / 2
+		if f(mid) <= Bt {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return lo, true
+}
+
+// meetAtHub returns the cut m (arclength) minimising the later arrival at hub
+// when agent fa walks the cycle forwards to m and agent fb backwards to m,
+// each then going straight to hub; and that arrival time.
+func (cy *hubCycle) meetAtHub(s *Site, hub Point, vf, vb float64) (float64, float64) {
+	L := cy.Len()
+	bp := cy.breakpoints()
+	arr := func(m float64) (float64, float64) {
+		p, _ := cy.pointAt(s, m)
+		d := s.PointDist(p, hub)
+		return (m + d) / vf, (L - m + d) / vb
+	}
+	F := func(m float64) float64 { a, b := arr(m); return a - b } // never decreases
+	lo, hi := 0.0, L
+	if F(0) >= 0 {
+		hi = 0
+	} else if F(L) <= 0 {
+		lo = L
+	} else {
+		// first breakpoint with F >= 0
+		j := sort.Search(len(bp), func(k int) bool { return F(bp[k]) >= 0 })
+		lo, hi = bp[j-1], bp[j]
+		for it := 0; it < 100 && hi-lo > 1e-13*math.Max(1, L); it++ {
+			mid := (lo + hi) / 2
+			if F(mid) < 0 {
+				lo = mid
+			} else {
+				hi = mid
+			}
+		}
+	}
+	best, bt := lo, math.Inf(1)
+	for _, m := range []float64{lo, hi} {
+		a, b := arr(m)
+		if t := math.Max(a, b); t < bt {
+			best, bt = m, t
+		}
+	}
+	return best, bt
+}
+
+// cycleFwd walks the cycle forwards from its start r to arclength a.
+func (b *routeBuilder) cycleFwd(cy *hubCycle, a float64) {
+	p, i := cy.pointAt(b.s, a)
+	if i >= 0 {
+		b.toNodes(cy.w.Nodes[:i+1])
+	}
+	b.to(p)
+}
+
+// cycleBwd walks the cycle backwards from its end r down to arclength a.
+func (b *routeBuilder) cycleBwd(cy *hubCycle, a float64) {
+	p, i := cy.pointAt(b.s, a)
+	if a < cy.lead+cy.w.Len() {
+		for k := len(cy.w.Nodes) - 1; k > i; k-- {
+			b.toNodes([]int{cy.w.Nodes[k]})
+		}
+		if i < 0 {
+			b.toNodes([]int{cy.w.Nodes[0]})
+		}
+	}
+	b.to(p)
+}
+
+func (b *routeBuilder) clone() *routeBuilder {
+	c := *b
+	c.wps = append([]Waypoint(nil), b.wps...)
+	return &c
+}
+
+// hubItems describes how the start's tour is arranged around the centroid:
+// the path from the start to c, and the parts hanging off it.
+type hubItems struct {
+	c      Point
+	d      float64 // d(start, c)
+	onPath []bool  // nodes of the start–c path (c itself when it is a node)
+	next   []int   // on the path: the child towards c (-1 at c or at the corridor's upper end past c)
+	roots  []int   // item roots: needed children of path nodes other than the path child, and the far end of c's corridor
+	w      []float64
+}
+
+func hubArrange(vw *hubView, c Point) *hubItems {
+	s := vw.s
+	it := &hubItems{c: c, onPath: make([]bool, s.N), next: make([]int, s.N)}
+	for i := range it.next {
+		it.next[i] = -1
+	}
+	low := -1 // deepest path node
+	far := -1 // far end of c's corridor
+	if c.IsNode() {
+		low = c.From
+	} else {
+		u, _, v, _ := s.ends(c)
+		low, far = u, v
+		if vw.depth[v] < vw.depth[u] {
+			low, far = v, u
+		}
+	}
+	for v := low; v >= 0; v = int(vw.par[v]) {
+		it.onPath[v] = true
+		if p := vw.par[v]; p >= 0 {
+			it.next[p] = v
+		}
+	}
+	if far >= 0 {
+		it.next[low] = far
+	}
+	it.d = vw.depth[low]
+	if far >= 0 {
+		it.d += s.PointDist(At(low), c)
+	}
+	for v := low; v >= 0; v = int(vw.par[v]) {
+		for _, k := range vw.kids(v) {
+			switch {
+			case k == far:
+				it.roots = append(it.roots, k)
+				it.w = append(it.w, vw.weight[k]-s.PointDist(At(low), c))
+			case k != it.next[v]:
+				it.roots = append(it.roots, k)
+				it.w = append(it.w, vw.weight[k])
+			}
+		}
+	}
+	return it
+}
+
+// hubExactItems is the largest item count split by exhaustive search.
+const hubExactItems = 16
+
+// split chooses the items walked before the tour's passage at c, so that
+// their weight is as close to target as possible: exhaustive for at most
+// hubExactItems items, else first-fit decreasing.
+func (it *hubItems) split(target float64) []bool {
+	k := len(it.roots)
+	in := make([]bool, k)
+	idx := make([]int, k)
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.SliceStable(idx, func(a, b int) bool { return it.w[idx[a]] > it.w[idx[b]] })
+	if k <= hubExactItems {
+		best, bestErr := 0, math.Abs(target)
+		for mask := 1; mask < 1<<k; mask++ {
+			sum := 0.0
+			for j := 0; j < k; j++ {
+				if mask&(1<<j) != 0 {
+					sum += it.w[idx[j]]
+				}
+			}
+			if e := math.Abs(sum - target); e < bestErr-1e-12*math.Max(1, target) {
+				best, bestErr = mask, e
+			}
+		}
+		for j := 0; j < k; j++ {
+			in[idx[j]] = best&(1<<j) != 0
+		}
+		return in
+	}
+	sum := 0.0
+	for _, j := range idx {
+		if sum+it.w[j] <= target*(1+1e-12) {
+			in[j] = true
+			sum += it.w[j]
+		}
+	}
+	return in
+}
+
+// hubVariant is one candidate plan with a short tag naming how it was made.
+type hubVariant struct {
+	tag  string
+	plan *Plan
+}
+
+// hubVariants builds every variant the planner compares.
+func hubVariants(s *Site) []hubVariant {
+	var out []hubVariant
+	if len(s.Candidates()) == 0 {
+		return []hubVariant{{"empty", &Plan{Note: "no candidate junctions: nothing to search"}}}
+	}
+	out = append(out, hubOpposite(s))
+	b := ComputeBounds(s)
+	c := s.Centroid()
+	vw := newHubView(s, At(s.Start), s.Candidate)
+	items := hubArrange(vw, c)
+	T1 := 2 * b.W / (s.Speed[0] + s.Speed[1])
+	roles := []int{0}
+	straddle := []bool{false, true}
+	if s.Speed[0] != s.Speed[1] {
+		roles = []int{0, 1}
+		straddle = []bool{false}
+	}
+	for _, fa := range roles {
+		fb := 1 - fa
+		target := (s.Speed[fa]*T1 - items.d) / 2
+		in := items.split(target)
+		inX := make([]bool, s.N)
+		wOf := make([]float64, s.N)
+		for j, r := range items.roots {
+			inX[r] = in[j]
+			wOf[r] = items.w[j]
+		}
+		for _, smallFirst := range straddle {
+			order := func(v int, kids []int) []int {
+				if v < 0 || !items.onPath[v] {
+					// off the path: the branch reaching farthest last
+					sort.SliceStable(kids, func(i, j int) bool { return vw.reach[kids[i]] < vw.reach[kids[j]] })
+					return kids
+				}
+				class := func(k int) int {
+					switch {
+					case k == items.next[v]:
+						return 1 // towards c (in a corridor centroid: also the far part)
+					case inX[k]:
+						return 0
+					}
+					return 2
+				}
+				sort.SliceStable(kids, func(i, j int) bool {
+					ci, cj := class(kids[i]), class(kids[j])
+					if ci != cj {
+						return ci < cj
+					}
+					if smallFirst {
+						return wOf[kids[i]] < wOf[kids[j]]
+					}
+					return wOf[kids[i]] > wOf[kids[j]]
+				})
+				return kids
+			}
+			cy := vw.tour(order)
+			name := fmt.Sprintf("%s forwards, %s backwards", s.Names[fa], s.Names[fb])
+			if !smallFirst {
+				name += ", largest leftover part first"
+			} else {
+				name += ", smallest leftover part first"
+			}
+			out = append(out, hubPhases(s, cy, c, fa, T1, name)...)
+		}
+	}
+	return out
+}
+
+// hubOpposite is the plain face-to-face opposite-tours plan (farthest branch
+// last, rendezvous where they meet): the safe fallback, worst ≤ 2W.
+func hubOpposite(s *Site) hubVariant {
+	w := s.Tour(OrderDeepLast)
+	split := w.Len() * s.Speed[0] / (s.Speed[0] + s.Speed[1])
+	f, b := newRoute(s, 0), newRoute(s, 1)
+	f.walkPrefix(s, w, split)
+	b.walkSuffixReversed(s, w, split)
+	f.rendezvous()
+	b.rendezvous()
+	p := &Plan{Note: fmt.Sprintf("fallback: %s walks a depth-first tour forwards, %s backwards, rendezvous where they meet", s.Names[0], s.Names[1])}
+	p.Routes[0], p.Routes[1] = f.route(), b.route()
+	return hubVariant{"opposite", p}
+}
+
+// hubPhases builds, from one arranged tour, the cover-then-meet plan and the
+// budget plans with each phase-2 rule.
+func hubPhases(s *Site, cy *hubCycle, c Point, fa int, T1 float64, name string) []hubVariant {
+	fb := 1 - fa
+	var out []hubVariant
+	// cover-then-meet: cut the tour so both reach c at the same time after
+	// exploring their halves, rendezvous at c
+	{
+		m, _ := cy.meetAtHub(s, c, s.Speed[fa], s.Speed[fb])
+		ra, rb := newRoute(s, fa), newRoute(s, fb)
+		ra.cycleFwd(cy, m)
+		rb.cycleBwd(cy, m)
+		ra.to(c)
+		rb.to(c)
+		t := math.Max(ra.t, rb.t)
+		ra.waitUntil(t)
+		rb.waitUntil(t)
+		ra.rendezvous()
+		rb.rendezvous()
+		p := &Plan{Note: fmt.Sprintf("hub: %s split the tour where both reach the centroid together at t=%.6g and meet there", name, t)}
+		p.Routes[fa], p.Routes[fb] = ra.route(), rb.route()
+		out = append(out, hubVariant{"cover-meet", p})
+	}
+	// budget T1: each goes as far as it can while being back at c by T1
+	L := cy.Len()
+	a, _ := cy.reach(s, c, s.Speed[fa]*T1, false)
+	l, _ := cy.reach(s, c, s.Speed[fb]*T1, true)
+	if a >= L-l {
+		return out // the budget covers the whole tour: cover-then-meet already does it
+	}
+	ra, rb := newRoute(s, fa), newRoute(s, fb)
+	ra.cycleFwd(cy, a)
+	rb.cycleBwd(cy, L-l)
+	ra.to(c)
+	rb.to(c)
+	t := math.Max(ra.t, rb.t)
+	ra.waitUntil(t)
+	rb.waitUntil(t)
+	ra.rendezvous()
+	rb.rendezvous()
+	// what phase 1 left unexplored
+	left := make([]bool, s.N)
+	some := false
+	{
+		ta, err1 := s.Trajectory(ra.route(), fa)
+		tb, err2 := s.Trajectory(rb.route(), fb)
+		if err1 != nil || err2 != nil {
+			return out
+		}
+		fva, fvb := ta.FirstVisits(), tb.FirstVisits()
+		for v := 0; v < s.N; v++ {
+			if s.Candidate[v] && math.IsInf(fva[v], 1) && math.IsInf(fvb[v], 1) {
+				left[v], some = true, true
+			}
+		}
+	}
+	if !some {
+		return out
+	}
+	sub := newHubView(s, c, left)
+	deepLast := func(v int, kids []int) []int {
+		sort.SliceStable(kids, func(i, j int) bool { return sub.reach[kids[i]] < sub.reach[kids[j]] })
+		return kids
+	}
+	cy2 := sub.tour(deepLast)
+	L2 := cy2.Len()
+	note := fmt.Sprintf("hub: %s, each back at the centroid by t=%.6g (rendezvous); then ", name, t)
+	// phase 2, together: both walk the leftover tour up to its last new candidate
+	{
+		end := 0.0
+		seen := make([]bool, s.N)
+		for i, v := range cy2.w.Nodes {
+			if left[v] && !seen[v] {
+				seen[v] = true
+				end = cy2.lead + cy2.w.Arc[i]
+			}
+		}
+		qa, qb := ra.clone(), rb.clone()
+		qa.cycleFwd(cy2, end)
+		qb.cycleFwd(cy2, end)
+		p := &Plan{Note: note + "both search the rest together"}
+		p.Routes[fa], p.Routes[fb] = qa.route(), qb.route()
+		out = append(out, hubVariant{"budget+together", p})
+	}
+	// phase 2, opposite tours of the rest with a rendezvous where they meet
+	{
+		m := L2 * s.Speed[fa] / (s.Speed[fa] + s.Speed[fb])
+		qa, qb := ra.clone(), rb.clone()
+		qa.cycleFwd(cy2, m)
+		qb.cycleBwd(cy2, m)
+		qa.rendezvous()
+		qb.rendezvous()
+		p := &Plan{Note: note + "opposite tours of the rest, rendezvous where they meet"}
+		p.Routes[fa], p.Routes[fb] = qa.route(), qb.route()
+		out = append(out, hubVariant{"budget+opposite", p})
+	}
+	// phase 2, split the rest and meet at the centroid again
+	{
+		m, _ := cy2.meetAtHub(s, c, s.Speed[fa], s.Speed[fb])
+		qa, qb := ra.clone(), rb.clone()
+		qa.cycleFwd(cy2, m)
+		qb.cycleBwd(cy2, m)
+		qa.to(c)
+		qb.to(c)
+		t2 := math.Max(qa.t, qb.t)
+		qa.waitUntil(t2)
+		qb.waitUntil(t2)
+		qa.rendezvous()
+		qb.rendezvous()
+		p := &Plan{Note: note + fmt.Sprintf("split the rest and meet at the centroid again at t=%.6g", t2)}
+		p.Routes[fa], p.Routes[fb] = qa.route(), qb.route()
+		out = append(out, hubVariant{"budget+hub", p})
+	}
+	return out
+}
+
+// planHub builds the variants and keeps the best under the face-to-face model.
+func planHub(ctx context.Context, s *Site, m Model, _ Options) (*Plan, error) {
+	vs := hubVariants(s)
+	plans := make([]*Plan, len(vs))
+	for i, v := range vs {
+		plans[i] = v.plan
+	}
+	return pickBest(ctx, s, m, plans)
+}
