@@ -92,6 +92,7 @@ type Editor struct {
 	drag    drag
 	lastTap lastTap
 	keyMods fyne.KeyModifier
+	tapMods fyne.KeyModifier // modifiers of the last press, for the tap after its release
 	pointer fyne.Position
 
 	msg   message

@@ -4,11 +4,14 @@ import (
 	"testing"
 	"time"
 
+	"math"
+
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/driver/desktop"
 	"fyne.io/fyne/v2/test"
 	"fyne.io/fyne/v2/theme"
 
+	"duosweep/canvas/geom"
 	"duosweep/engine"
 )
 
@@ -86,4 +89,25 @@ func tapAt(e *Editor, p fyne.Position, mods fyne.KeyModifier) {
 	e.MouseDown(&desktop.MouseEvent{PointEvent: fyne.PointEvent{Position: p}, Button: desktop.MouseButtonPrimary, Modifier: mods})
 	e.MouseUp(&desktop.MouseEvent{PointEvent: fyne.PointEvent{Position: p}, Button: desktop.MouseButtonPrimary})
 	e.Tapped(&fyne.PointEvent{Position: p})
+}
+
+var (
+	desktopShortcutZ      = desktop.CustomShortcut{KeyName: fyne.KeyZ, Modifier: fyne.KeyModifierControl}
+	desktopShortcutShiftZ = desktop.CustomShortcut{KeyName: fyne.KeyZ, Modifier: fyne.KeyModifierControl | fyne.KeyModifierShift}
+)
+
+func mouse(p fyne.Position, mods fyne.KeyModifier) *desktop.MouseEvent {
+	return &desktop.MouseEvent{PointEvent: fyne.PointEvent{Position: p}, Button: desktop.MouseButtonPrimary, Modifier: mods}
+}
+
+func renderMarkup(w fyne.Window) string { return test.RenderToMarkup(w.Canvas()) }
+
+func minPairDist(pts []geom.Pt) float64 {
+	md := math.Inf(1)
+	for i := range pts {
+		for j := i + 1; j < len(pts); j++ {
+			md = math.Min(md, geom.Dist(pts[i], pts[j]))
+		}
+	}
+	return md
 }

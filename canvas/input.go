@@ -126,7 +126,7 @@ func (e *Editor) report(err error, at fyne.Position) {
 }
 
 func (e *Editor) mods() fyne.KeyModifier {
-	m := e.keyMods
+	m := e.keyMods | e.tapMods
 	if e.press.valid {
 		m |= e.press.mods
 	}
@@ -137,10 +137,11 @@ func (e *Editor) mods() fyne.KeyModifier {
 // space deselect, or add a junction with the add tool, Shift-tap or a
 // double tap.
 func (e *Editor) Tapped(ev *fyne.PointEvent) {
+	e.requestFocus()
 	pos := ev.Position
 	e.pointer = pos
 	mods := e.mods()
-	e.press = press{}
+	e.press, e.tapMods = press{}, 0
 	hit := e.hitTest(pos)
 	switch hit.Kind {
 	case SelNode:
@@ -183,7 +184,7 @@ func (e *Editor) Tapped(ev *fyne.PointEvent) {
 func (e *Editor) TappedSecondary(ev *fyne.PointEvent) {
 	pos := ev.Position
 	e.pointer = pos
-	e.press = press{}
+	e.press, e.tapMods = press{}, 0
 	hit := e.hitTest(pos)
 	if hit.Kind != SelNone {
 		e.Select(hit)
@@ -218,20 +219,34 @@ func (e *Editor) TappedSecondary(ev *fyne.PointEvent) {
 	widget.ShowPopUpMenuAtPosition(fyne.NewMenu("", items...), c, ev.AbsolutePosition)
 }
 
+// requestFocus gives the editor the keyboard (fyne's desktop driver does not
+// focus a widget on click by itself).
+func (e *Editor) requestFocus() {
+	if !live() {
+		return
+	}
+	if c := fyne.CurrentApp().Driver().CanvasForObject(e); c != nil && c.Focused() != e {
+		c.Focus(e)
+	}
+}
+
 func second(_ int, err error) error { return err }
 
 // MouseDown is part of desktop.Mouseable: it records where a drag starts and
 // with which modifiers.
 func (e *Editor) MouseDown(ev *desktop.MouseEvent) {
+	e.requestFocus()
+	e.tapMods = 0
 	e.press = press{valid: true, at: ev.Position, mods: ev.Modifier}
 	e.pointer = ev.Position
 }
 
 // MouseUp is part of desktop.Mouseable.
 func (e *Editor) MouseUp(ev *desktop.MouseEvent) {
-	if e.drag.kind == dragNone {
-		e.press = press{}
+	if e.drag.kind == dragNone && e.press.valid {
+		e.tapMods = e.press.mods // the tap that follows the release
 	}
+	e.press = press{}
 }
 
 // Dragged is part of fyne.Draggable. A drag from a junction moves it (with

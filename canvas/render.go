@@ -107,16 +107,16 @@ func (r *editorRenderer) Objects() []fyne.CanvasObject {
 		r.grown = false
 		o := r.objects[:0]
 		o = append(o, r.bg, r.corrHov, r.corrSel)
-		for _, l := range r.trails {
-			for _, s := range l {
-				o = append(o, s)
-			}
-		}
 		for _, l := range r.corr {
 			o = append(o, l)
 		}
 		for _, t := range r.corrLbl {
 			o = append(o, t)
+		}
+		for _, l := range r.trails {
+			for _, s := range l {
+				o = append(o, s)
+			}
 		}
 		o = append(o, r.hovRing, r.selRing, r.worst, r.focus, r.ticks[0], r.ticks[1], r.ticks[2], r.ticks[3])
 		for _, c := range r.nodes {
@@ -407,7 +407,11 @@ func (r *editorRenderer) Layout(size fyne.Size) {
 		}
 		t.Hidden = !on || !(showLabels || i == start || e.sel == Selection{SelNode, i} || e.hover == Selection{SelNode, i})
 		if !t.Hidden {
-			moveText(t, p.X+nodeR+4, p.Y-float64(t.Size().Height)-1)
+			dx := float64(nodeR + 4)
+			if i == start || i == ov.Worst || i == ov.Focus {
+				dx = 21 // clear of the square, ring or target marker
+			}
+			moveText(t, p.X+dx, p.Y-float64(t.Size().Height)-1)
 		}
 	}
 	for i, en := range e.d.ends {

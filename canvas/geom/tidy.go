@@ -1,6 +1,9 @@
 package geom
 
-import "sort"
+import (
+	"math"
+	"sort"
+)
 
 // Edge joins nodes A and B; Len is its length in drawing units (≤ 0 counts as
 // the typical length).
@@ -26,26 +29,28 @@ func MedianLen(edges []Edge) float64 {
 }
 
 // Tidy returns a layered layout of the graph with n nodes, drawn downwards
-// from root (root at the origin): each node sits below its parent by its
-// corridor length (at least half the median length, so short corridors stay
-// readable), leaves take consecutive columns one median length apart in
-// depth-first order, and every inner node is centred over its children.
+// from root (root at the origin). All nodes with the same number of corridors
+// from the root share a row; the gap above a row is the median length of the
+// corridors entering it, clamped to [½, 3] × the median corridor length, so
+// lengths are roughly reflected while rows stay readable. Leaves take
+// consecutive columns one median length apart in depth-first order, and every
+// inner node is centred over its first and last child.
 //
-// Because the subtrees of two siblings occupy disjoint column ranges, two
-// nodes that are not ancestor and descendant are at least one column apart,
-// and an ancestor is at least half a median length above its descendants:
-// no two nodes are closer than half the median length, and no two corridors
-// cross. The graph need not be a tree: a breadth-first spanning forest is
-// laid out (root's component first, then the others in index order, side by
-// side), so the function also copes with a scenario that is still being
-// edited. Edges with an end out of range are ignored. O(n + m).
+// The subtrees of two siblings occupy disjoint column ranges and rows keep
+// their order, so no two nodes are closer than half the median length and no
+// two corridors cross (tests check both). The graph need not be a tree: a
+// depth-first spanning forest is laid out (root's component first, then the
+// others in index order, side by side), so the function also copes with a
+// scenario that is still being edited. Edges with an end out of range are
+// ignored. O(n + m log m).
 func Tidy(n int, edges []Edge, root int) []Pt {
 	pos := make([]Pt, n)
 	if n == 0 {
 		return pos
 	}
 	unit := MedianLen(edges)
-	minStep := unit / 2
+	level := make([]int, n)
+	var rowLens [][]float64 // lengths of the corridors entering each row
 	// adjacency (CSR, edge order)
 	deg := make([]int, n+1)
 	for _, e := range edges {
@@ -83,7 +88,7 @@ func Tidy(n int, edges []Edge, root int) []Pt {
 		first := len(order)
 		parent[r] = -1
 		seen[r] = true
-		pos[r] = Pt{0, 0}
+		level[r] = 0
 		stack := []int{r}
 		for len(stack) > 0 {
 			v := stack[len(stack)-1]
@@ -101,10 +106,11 @@ func Tidy(n int, edges []Edge, root int) []Pt {
 				if !(l > 0) {
 					l = unit
 				}
-				if l < minStep {
-					l = minStep
+				level[w] = level[v] + 1
+				for len(rowLens) <= level[w] {
+					rowLens = append(rowLens, nil)
 				}
-				pos[w].Y = pos[v].Y + l
+				rowLens[level[w]] = append(rowLens[level[w]], l)
 				kids = append(kids, w)
 			}
 			children[v] = kids
@@ -133,6 +139,16 @@ func Tidy(n int, edges []Edge, root int) []Pt {
 		if !seen[v] {
 			layoutFrom(v)
 		}
+	}
+	rowY := make([]float64, len(rowLens)+1)
+	for k := 1; k < len(rowLens); k++ {
+		ls := rowLens[k]
+		sort.Float64s(ls)
+		gap := math.Max(unit/2, math.Min(3*unit, ls[len(ls)/2]))
+		rowY[k] = rowY[k-1] + gap
+	}
+	for v := range pos {
+		pos[v].Y = rowY[level[v]]
 	}
 	// shift so that root is at the origin
 	r0 := pos[root]

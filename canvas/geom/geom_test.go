@@ -1,0 +1,267 @@
+package geom
+
+import (
+	"math"
+	"math/rand/v2"
+	"testing"
+)
+
+func TestSegDist(t *testing.T) {
+	a, b := Pt{0, 0}, Pt{10, 0}
+	for _, tc := range []struct {
+		name string
+		p    Pt
+		d, t float64
+	}{
+		{"above middle", Pt{5, 3}, 3, 0.5},
+		{"on the segment", Pt{2, 0}, 0, 0.2},
+		{"beyond B", Pt{13, 4}, 5, 1}, // 3-4-5 triangle, worked by hand
+		{"before A", Pt{-6, -8}, 10, 0},
+		{"at A", Pt{0, 0}, 0, 0},
+	} {
+		d, f := SegDist(tc.p, a, b)
+		if math.Abs(d-tc.d) > 1e-12 || math.Abs(f-tc.t) > 1e-12 {
+			t.Errorf("%s: SegDist = %v, %v; want %v, %v", tc.name, d, f, tc.d, tc.t)
+		}
+	}
+	if d, f := SegDist(Pt{3, 4}, Pt{0, 0}, Pt{0, 0}); d != 5 || f != 0 {
+		t.Errorf("degenerate segment: %v %v", d, f)
+	}
+}
+
+func TestNearestPoint(t *testing.T) {
+	pts := []Pt{{0, 0}, {10, 0}, {10, 0}, {20, 5}}
+	for _, tc := range []struct {
+		name string
+		p    Pt
+		r    float64
+		skip int
+		want int
+	}{
+		{"exact hit", Pt{0, 0}, 12, -1, 0},
+		{"closest of two", Pt{6, 0}, 12, -1, 1},
+		{"tie goes to lower index", Pt{10, 1}, 12, -1, 1},
+		{"skip", Pt{10, 1}, 12, 1, 2},
+		{"out of radius", Pt{0, 13}, 12, -1, -1},
+		{"just inside", Pt{20, 16.9}, 12, -1, 3},
+		{"empty space", Pt{50, 50}, 12, -1, -1},
+	} {
+		if got := NearestPoint(pts, tc.p, tc.r, tc.skip); got != tc.want {
+			t.Errorf("%s: NearestPoint = %d, want %d", tc.name, got, tc.want)
+		}
+	}
+	if NearestPoint(nil, Pt{}, 10, -1) != -1 {
+		t.Error("no points")
+	}
+}
+
+func TestNearestSeg(t *testing.T) {
+	segs := []Seg{{Pt{0, 0}, Pt{100, 0}}, {Pt{0, 0}, Pt{0, 100}}, {Pt{50, 50}, Pt{100, 100}}}
+	for _, tc := range []struct {
+		name string
+		p    Pt
+		want int
+	}{
+		{"near horizontal", Pt{50, 4}, 0},
+		{"near vertical", Pt{-3, 60}, 1},
+		{"corner tie goes to lower index", Pt{-2, -2}, 0},
+		{"diagonal", Pt{76, 74}, 2},
+		{"past the diagonal's end", Pt{110, 110}, -1},
+		{"far away", Pt{50, 30}, -1},
+	} {
+		if got := NearestSeg(segs, tc.p, 6); got != tc.want {
+			t.Errorf("%s: NearestSeg = %d, want %d", tc.name, got, tc.want)
+		}
+	}
+}
+
+func TestLerp(t *testing.T) {
+	a, b := Pt{0, 0}, Pt{10, 20}
+	for _, tc := range []struct {
+		f    float64
+		want Pt
+	}{{0, a}, {1, b}, {0.25, Pt{2.5, 5}}, {-1, a}, {2, b}, {math.NaN(), a}} {
+		if got := Lerp(a, b, tc.f); got != tc.want {
+			t.Errorf("Lerp(%v) = %v, want %v", tc.f, got, tc.want)
+		}
+	}
+}
+
+func TestRect(t *testing.T) {
+	r := Bounds([]Pt{{1, 2}, {-3, 5}, {4, -1}})
+	if r != (Rect{Pt{-3, -1}, Pt{4, 5}}) {
+		t.Fatalf("Bounds = %v", r)
+	}
+	if !EmptyRect().Empty() || r.Empty() || !Bounds(nil).Empty() {
+		t.Fatal("Empty")
+	}
+	if !r.Contains(Pt{4, 5}) || r.Contains(Pt{4.1, 0}) {
+		t.Fatal("Contains")
+	}
+	screen := Rect{Pt{0, 0}, Pt{100, 100}}
+	for _, tc := range []struct {
+		a, b Pt
+		want bool
+	}{
+		{Pt{-10, 50}, Pt{110, 50}, true}, // crosses
+		{Pt{-10, -10}, Pt{-5, 200}, false},
+		{Pt{50, 50}, Pt{60, 60}, true},
+		{Pt{101, 0}, Pt{200, 100}, false},
+	} {
+		if got := screen.SegTouches(tc.a, tc.b); got != tc.want {
+			t.Errorf("SegTouches(%v, %v) = %v", tc.a, tc.b, got)
+		}
+	}
+}
+
+func TestViewRoundTripZoomAndFit(t *testing.T) {
+	v := View{Zoom: 2.5, Off: Pt{30, -7}}
+	for _, w := range []Pt{{0, 0}, {1, 2}, {-100, 3.5}} {
+		if got := v.ToWorld(v.ToScreen(w)); Dist(got, w) > 1e-9 {
+			t.Errorf("round trip %v → %v", w, got)
+		}
+	}
+	s := Pt{123, 45}
+	before := v.ToWorld(s)
+	z := v.ZoomAround(1.7, s)
+	if Dist(z.ToWorld(s), before) > 1e-9 || math.Abs(z.Zoom-2.5*1.7) > 1e-12 {
+		t.Errorf("ZoomAround moved the anchored point: %v vs %v", z.ToWorld(s), before)
+	}
+	if got := v.ZoomAround(1e12, s).Zoom; got != MaxZoom {
+		t.Errorf("zoom not clamped: %v", got)
+	}
+	if got := v.ZoomAround(0, s); got != v {
+		t.Errorf("factor 0 must be ignored")
+	}
+	// Fit: a 100×50 box in a 300×300 widget with margin 50: zoom 2, centred
+	f := Fit(Rect{Pt{0, 0}, Pt{100, 50}}, 300, 300, 50, 1)
+	if f.Zoom != 2 {
+		t.Fatalf("Fit zoom %v", f.Zoom)
+	}
+	if c := f.ToScreen(Pt{50, 25}); Dist(c, Pt{150, 150}) > 1e-9 {
+		t.Fatalf("Fit centre at %v", c)
+	}
+	if p := f.ToScreen(Pt{0, 0}); Dist(p, Pt{50, 100}) > 1e-9 {
+		t.Fatalf("Fit corner at %v", p)
+	}
+	one := Fit(Bounds([]Pt{{5, 5}}), 200, 100, 10, 3)
+	if one.Zoom != 3 || Dist(one.ToScreen(Pt{5, 5}), Pt{100, 50}) > 1e-9 {
+		t.Fatalf("single point fit %v", one)
+	}
+	line := Fit(Bounds([]Pt{{0, 0}, {0, 10}}), 200, 120, 10, 1)
+	if line.Zoom != 10 {
+		t.Fatalf("vertical line fit %v", line.Zoom)
+	}
+}
+
+// trees used by the tidy tests
+func pathTree(n int) []Edge {
+	var e []Edge
+	for i := 1; i < n; i++ {
+		e = append(e, Edge{i - 1, i, 10})
+	}
+	return e
+}
+
+func starTree(n int) []Edge {
+	var e []Edge
+	for i := 1; i < n; i++ {
+		e = append(e, Edge{0, i, float64(i)})
+	}
+	return e
+}
+
+func randomTree(n int, seed uint64) []Edge {
+	rng := rand.New(rand.NewPCG(seed, 1))
+	var e []Edge
+	for i := 1; i < n; i++ {
+		e = append(e, Edge{rng.IntN(i), i, 0.5 + rng.Float64()*30})
+	}
+	return e
+}
+
+func minDist(p []Pt) float64 {
+	md := math.Inf(1)
+	for i := range p {
+		for j := i + 1; j < len(p); j++ {
+			md = math.Min(md, Dist(p[i], p[j]))
+		}
+	}
+	return md
+}
+
+func cross(a, b, c, d Pt) bool {
+	o := func(p, q, r Pt) float64 { return (q.X-p.X)*(r.Y-p.Y) - (q.Y-p.Y)*(r.X-p.X) }
+	return o(a, b, c)*o(a, b, d) < 0 && o(c, d, a)*o(c, d, b) < 0
+}
+
+func TestTidyNoOverlapNoCrossing(t *testing.T) {
+	cases := []struct {
+		name  string
+		n     int
+		edges []Edge
+		root  int
+	}{
+		{"single node", 1, nil, 0},
+		{"path", 20, pathTree(20), 0},
+		{"path rooted inside", 20, pathTree(20), 7},
+		{"star with tiny and long spokes", 30, starTree(30), 0},
+		{"random 200", 200, randomTree(200, 1), 0},
+		{"random 500 rooted at 42", 500, randomTree(500, 7), 42},
+		{"forest (being edited)", 6, []Edge{{0, 1, 5}, {2, 3, 5}}, 0},
+		{"cycle from a file", 4, []Edge{{0, 1, 5}, {1, 2, 5}, {2, 0, 5}, {2, 3, 5}}, 0},
+	}
+	for _, tc := range cases {
+		p := Tidy(tc.n, tc.edges, tc.root)
+		if len(p) != tc.n {
+			t.Fatalf("%s: %d points", tc.name, len(p))
+		}
+		if p[tc.root] != (Pt{}) {
+			t.Errorf("%s: root at %v", tc.name, p[tc.root])
+		}
+		unit := MedianLen(tc.edges)
+		if md := minDist(p); md < unit/2-1e-9 {
+			t.Errorf("%s: two nodes %.3g apart, want ≥ %.3g", tc.name, md, unit/2)
+		}
+		if tc.n <= 200 && len(tc.edges) == tc.n-1 {
+			for i, a := range tc.edges {
+				for _, b := range tc.edges[i+1:] {
+					if a.A == b.A || a.A == b.B || a.B == b.A || a.B == b.B {
+						continue
+					}
+					if cross(p[a.A], p[a.B], p[b.A], p[b.B]) {
+						t.Fatalf("%s: corridors %v and %v cross", tc.name, a, b)
+					}
+				}
+			}
+		}
+		for _, v := range p {
+			if math.IsNaN(v.X) || math.IsNaN(v.Y) {
+				t.Fatalf("%s: NaN", tc.name)
+			}
+		}
+	}
+}
+
+func TestTidyReflectsLengths(t *testing.T) {
+	// a path is drawn straight down, each corridor exactly its length
+	// (within [½, 3] × the median 10), worked by hand.
+	edges := []Edge{{0, 1, 10}, {1, 2, 25}, {2, 3, 10}}
+	p := Tidy(4, edges, 0)
+	want := []Pt{{0, 0}, {0, 10}, {0, 35}, {0, 45}}
+	for i := range want {
+		if Dist(p[i], want[i]) > 1e-9 {
+			t.Fatalf("node %d at %v, want %v", i, p[i], want[i])
+		}
+	}
+	// children below the parent, parent centred over them
+	p = Tidy(3, []Edge{{0, 1, 4}, {0, 2, 4}}, 0)
+	if p[1].Y != 4 || p[2].Y != 4 || p[1].X != -p[2].X || p[1].X >= p[2].X {
+		t.Fatalf("fork %v", p)
+	}
+	// a very short corridor gets half the median, a very long one 3 × the median
+	p = Tidy(4, []Edge{{0, 1, 10}, {1, 2, 0.1}, {2, 3, 500}}, 0)
+	if p[2].Y-p[1].Y != 5 || p[3].Y-p[2].Y != 30 {
+		t.Fatalf("clamped rows %v", p)
+	}
+}
