@@ -1,0 +1,39 @@
+// Command duosweep is the Duosweep desktop app: draw a tree-shaped site, plan a two-person sweep under
+// radio or face-to-face contact, compare the two and play the plan back.
+//
+//	duosweep            opens the bundled demo site, already planned
+//	duosweep FILE       opens a scenario file (*.sweep.json)
+//
+// Duosweep is a planning and training aid, not a substitute for the site's emergency plan, local
+// regulations or licensed practice.
+package main
+
+import (
+	"flag"
+	"fmt"
+	"os"
+
+	"fyne.io/fyne/v2"
+	"fyne.io/fyne/v2/app"
+
+	"duosweep/icons"
+	"duosweep/ui"
+)
+
+func main() {
+	flag.Usage = func() {
+		fmt.Fprintln(os.Stderr, "usage: duosweep [FILE.sweep.json]")
+	}
+	flag.Parse()
+	if flag.NArg() > 1 {
+		flag.Usage()
+		os.Exit(2)
+	}
+	a := app.NewWithID("app.duosweep.desktop")
+	a.SetIcon(icons.App)
+	w := a.NewWindow("Duosweep")
+	w.Resize(fyne.NewSize(1360, 860))
+	ui.New(a, w, flag.Arg(0))
+	w.SetMaster()
+	w.ShowAndRun()
+}

@@ -1,0 +1,244 @@
+package ui
+
+import (
+	"context"
+	"fmt"
+	"path/filepath"
+	"strings"
+	"sync"
+	"time"
+
+	"fyne.io/fyne/v2"
+	"fyne.io/fyne/v2/container"
+	"fyne.io/fyne/v2/dialog"
+	"fyne.io/fyne/v2/widget"
+
+	"duosweep/canvas"
+	"duosweep/engine"
+	"duosweep/icons"
+	"duosweep/projects"
+)
+
+// Notice is the line the window always shows (MODEL.md: plans may be relied on in an emergency).
+const Notice = projects.Disclaimer
+
+// App is one Duosweep window: the scenario being edited, its current plan and the playback state.
+// All fields are owned by the UI goroutine; background planning hands results back through post.
+type App struct {
+	fyneApp fyne.App
+	win     fyne.Window
+	editor  *canvas.Editor
+
+	path  string // file of the scenario, "" while untitled
+	dirty bool
+
+	// planning choices
+	model   engine.Model
+	planner string // "" is "best available"
+
+	// the last published planning result (site, plan and report are nil when err is set)
+	gen        uint64 // generation of the newest planning run
+	shownGen   uint64 // generation of the result on screen
+	cancel     context.CancelFunc
+	busy       bool
+	site       *engine.Site
+	plan       *engine.Plan
+	report     *engine.Report
+	planErr    error
+	comparison *comparison
+
+	// playback
+	focus    int // candidate replayed on request (OnNodeTapped), -1 for the worst exit
+	replay   *engine.Replay
+	trails   [2]trail
+	t        float64
+	tMax     float64
+	speed    float64
+	playing  bool
+	anim     *fyne.Animation
+	lastTick time.Time
+	heat     canvas.Overlay // per-report part of the overlay (heat, worst, unvisited)
+	overlay  canvas.Overlay // what the editor shows now
+
+	// post delivers a function to the UI goroutine (fyne.Do; tests swap in a queue).
+	post func(func())
+	// now is the clock of playback (tests drive frames with a fake clock).
+	now func() time.Time
+	// jobs counts background planning runs whose results are not yet posted.
+	jobs sync.WaitGroup
+
+	autosaveTimer *time.Timer
+	recovery      string // recovery file path (computed once; tests set it)
+
+	// candidate table order
+	exitRows []int // indices into report.Exits, in display order
+	sortCol  int
+	sortDesc bool
+	syncing  bool // true while code (not the user) moves the slider or the event list
+
+	w widgets
+}
+
+// New builds the Duosweep window content in w for application a and opens path, or the bundled demo when
+// path is empty. A file that cannot be loaded is reported in a dialog and the demo opens instead. The
+// demo (or file) is planned at once in the background; the caller shows the window.
+func New(a fyne.App, w fyne.Window, path string) *App {
+	return newApp(a, w, path, options{post: fyne.Do})
+}
+
+// options are the seams tests use: how work reaches the UI goroutine, and where the recovery file lives
+// ("" for the app's storage root).
+type options struct {
+	post     func(func())
+	recovery string
+}
+
+func newApp(a fyne.App, w fyne.Window, path string, opt options) *App {
+	app := &App{fyneApp: a, win: w, focus: -1, speed: 1, post: opt.post, now: time.Now, recovery: opt.recovery}
+	sc := projects.Demo()
+	var loadErr error
+	if path != "" {
+		if abs, err := filepath.Abs(path); err == nil {
+			path = abs
+		}
+		if got, err := projects.LoadFile(path); err != nil {
+			loadErr = err
+			path = ""
+		} else {
+			sc = got
+		}
+	}
+	app.path = path
+	app.editor = canvas.NewEditor(sc)
+	app.editor.OnChanged = app.scenarioChanged
+	app.editor.OnSelectionChanged = func(canvas.Selection) { app.refreshInspector() }
+	app.editor.OnNodeTapped = app.nodeTapped
+	app.editor.OnMessage = func(msg string, _ fyne.Position) { app.setStatus(msg) }
+
+	w.SetIcon(icons.App)
+	w.SetContent(app.layout())
+	w.SetMainMenu(app.mainMenu())
+	app.addShortcuts()
+	w.SetCloseIntercept(app.quit)
+	if path != "" {
+		app.addRecent(path)
+	}
+	app.updateTitle()
+	app.refreshInspector()
+	app.replan()
+	if loadErr != nil {
+		app.showError("Could not open the file; the demo site is open instead", loadErr)
+	} else {
+		app.offerRecovery()
+	}
+	return app
+}
+
+// Window returns the window the app lives in.
+func (a *App) Window() fyne.Window { return a.win }
+
+// Editor returns the tree-editor canvas.
+func (a *App) Editor() *canvas.Editor { return a.editor }
+
+// layout assembles the window: canvas centre, inspector and plan panel at the side, timeline and notice
+// below.
+func (a *App) layout() fyne.CanvasObject {
+	side := container.NewVSplit(a.inspectorPanel(), a.sideTabs())
+	side.Offset = 0.34
+	main := container.NewHSplit(a.editor, side)
+	main.Offset = 0.66
+	a.w.status = widget.NewLabel("")
+	a.w.status.Truncation = fyne.TextTruncateEllipsis
+	notice := widget.NewLabel(Notice)
+	notice.Importance = widget.LowImportance
+	notice.Truncation = fyne.TextTruncateEllipsis
+	bottom := container.NewVBox(widget.NewSeparator(), a.timelinePanel(), widget.NewSeparator(),
+		container.NewBorder(nil, nil, nil, a.w.status, notice))
+	return container.NewBorder(a.toolbar(), bottom, nil, nil, main)
+}
+
+// sideTabs holds the plan panel and the radio-versus-face-to-face view.
+func (a *App) sideTabs() fyne.CanvasObject {
+	a.w.tabs = container.NewAppTabs(
+		container.NewTabItem("Plan", a.planPanel()),
+		container.NewTabItem("Radio vs face to face", a.comparePanel()),
+	)
+	return a.w.tabs
+}
+
+// scenarioChanged runs after every edit on the canvas or in the inspector.
+func (a *App) scenarioChanged(engine.Scenario) {
+	a.setDirty(true)
+	a.refreshUndo()
+	a.refreshInspector()
+	a.replan()
+}
+
+// setScenario replaces the scenario (New, Open, Recover) and replans; it starts a new undo history.
+func (a *App) setScenario(sc engine.Scenario, path string, dirty bool) {
+	a.stop()
+	a.focus = -1
+	a.t = 0
+	a.path = path
+	a.editor.SetScenario(sc)
+	a.editor.Select(canvas.Selection{Kind: canvas.SelNone})
+	a.editor.FitView()
+	a.setDirty(dirty)
+	a.refreshUndo()
+	a.refreshInspector()
+	a.replan()
+}
+
+func (a *App) setDirty(d bool) {
+	a.dirty = d
+	if d {
+		a.scheduleAutosave()
+	}
+	a.updateTitle()
+}
+
+// title is "Duosweep — NAME", with " •" while there are unsaved changes.
+func (a *App) title() string {
+	name := a.editor.Scenario().Name
+	if name == "" && a.path != "" {
+		name = strings.TrimSuffix(filepath.Base(a.path), ".sweep.json")
+	}
+	if name == "" {
+		name = "Untitled site"
+	}
+	t := "Duosweep — " + name
+	if a.dirty {
+		t += " •"
+	}
+	return t
+}
+
+func (a *App) updateTitle() { a.win.SetTitle(a.title()) }
+
+func (a *App) setStatus(msg string) {
+	if a.w.status != nil {
+		a.w.status.SetText(msg)
+	}
+}
+
+// showError shows err in a dialog under a one-line summary.
+func (a *App) showError(summary string, err error) {
+	msg := widget.NewLabel(err.Error())
+	msg.Wrapping = fyne.TextWrapWord
+	content := container.NewVBox(widget.NewLabelWithStyle(summary, fyne.TextAlignLeading, fyne.TextStyle{Bold: true}), msg)
+	d := dialog.NewCustom("Duosweep", "OK", content, a.win)
+	d.Resize(fyne.NewSize(560, 200))
+	d.Show()
+	a.setStatus(summary)
+}
+
+// nodeName is "label (id)" or the id.
+func nodeName(s *engine.Site, v int) string {
+	if v < 0 || s == nil || v >= s.N {
+		return "—"
+	}
+	if l := s.Scenario.Nodes[v].Label; l != "" && l != s.IDs[v] {
+		return fmt.Sprintf("%s (%s)", s.IDs[v], l)
+	}
+	return s.IDs[v]
+}

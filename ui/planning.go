@@ -1,0 +1,177 @@
+package ui
+
+import (
+	"context"
+	"math"
+
+	"duosweep/engine"
+)
+
+// planResult is what one background planning run produces.
+type planResult struct {
+	site   *engine.Site
+	plan   *engine.Plan
+	report *engine.Report
+	err    error // the engine's message for an invalid site or a failed planner
+}
+
+// comparison is the radio-versus-face-to-face view: the best plan under each model, each evaluated
+// under both models. cell[i][j] is the plan made for Models[i] evaluated under Models[j].
+type comparison struct {
+	plans [2]*engine.Plan
+	cell  [2][2]*engine.Report
+	err   error
+}
+
+// computePlan validates sc and plans it with the chosen planner ("" for the best available).
+func computePlan(ctx context.Context, sc engine.Scenario, m engine.Model, planner string) planResult {
+	res := planResult{}
+	site, err := engine.NewSite(sc)
+	if err != nil {
+		res.err = err
+		return res
+	}
+	res.site = site
+	var p *engine.Plan
+	var r *engine.Report
+	if planner == "" {
+		p, r, err = engine.BestPlan(ctx, site, m)
+	} else {
+		p, err = engine.MakePlan(ctx, site, planner, m, engine.Options{})
+		if err == nil {
+			r, err = engine.Evaluate(site, p, m)
+		}
+	}
+	if err != nil {
+		res.err = err
+		return res
+	}
+	res.plan, res.report = p, r
+	return res
+}
+
+// computeComparison plans site with the best available planner under both models and evaluates each
+// plan under both.
+func computeComparison(ctx context.Context, site *engine.Site) *comparison {
+	c := &comparison{}
+	for i, m := range engine.Models {
+		p, _, err := engine.BestPlan(ctx, site, m)
+		if err != nil {
+			c.err = err
+			return c
+		}
+		radio, f2f, err := engine.EvaluateBoth(site, p)
+		if err != nil {
+			c.err = err
+			return c
+		}
+		c.plans[i] = p
+		c.cell[i] = [2]*engine.Report{radio, f2f}
+	}
+	return c
+}
+
+// replan starts planning the current scenario in the background, cancelling the previous run. The
+// result is published on the UI goroutine if no newer run has started meanwhile.
+func (a *App) replan() {
+	if a.cancel != nil {
+		a.cancel()
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	a.cancel = cancel
+	a.gen++
+	gen := a.gen
+	sc := a.editor.Scenario().Clone()
+	m, planner := a.model, a.planner
+	a.setBusy(true)
+	a.jobs.Add(1)
+	go func() {
+		defer a.jobs.Done()
+		res := computePlan(ctx, sc, m, planner)
+		if ctx.Err() != nil {
+			return // a newer run owns the screen
+		}
+		a.post(func() {
+			if gen == a.gen {
+				a.publish(gen, res)
+			}
+		})
+		if res.site == nil {
+			return // no valid site: nothing to compare
+		}
+		cmp := computeComparison(ctx, res.site)
+		if ctx.Err() != nil {
+			return
+		}
+		a.post(func() {
+			if gen == a.gen {
+				a.publishComparison(cmp)
+			}
+		})
+	}()
+}
+
+// publish shows a planning result. It runs on the UI goroutine.
+func (a *App) publish(gen uint64, res planResult) {
+	a.shownGen = gen
+	a.setBusy(false)
+	a.planErr = res.err
+	if res.err != nil {
+		// the canvas keeps showing the scenario; the panel shows the message
+		a.site, a.plan, a.report = res.site, nil, nil
+		a.comparison = nil
+		a.heat = noHeat()
+		a.setReplay(nil)
+		a.refreshResults()
+		a.refreshComparison()
+		return
+	}
+	a.site, a.plan, a.report = res.site, res.plan, res.report
+	a.heat = heatOverlay(res.site, res.report)
+	a.comparison = nil
+	if a.focus >= 0 {
+		if _, ok := res.report.ExitFor(a.focus); !ok {
+			a.focus = -1
+		}
+	}
+	a.rebuildReplay()
+	a.refreshResults()
+	a.refreshComparison()
+}
+
+func (a *App) publishComparison(c *comparison) {
+	a.comparison = c
+	a.refreshComparison()
+}
+
+// setBusy shows or hides the "planning…" state.
+func (a *App) setBusy(b bool) {
+	a.busy = b
+	if a.w.busyBar == nil {
+		return
+	}
+	if b {
+		a.w.busyLabel.SetText("planning…")
+		a.w.busyBar.Show()
+		a.w.busyBar.Start()
+	} else {
+		a.w.busyBar.Stop()
+		a.w.busyBar.Hide()
+		if a.planErr == nil && a.report != nil {
+			a.w.busyLabel.SetText("plan up to date")
+		} else {
+			a.w.busyLabel.SetText("")
+		}
+	}
+}
+
+// finiteMax returns the largest finite evacuation time of r (0 when none is finite).
+func finiteMax(r *engine.Report) float64 {
+	m := 0.0
+	for _, ex := range r.Exits {
+		if !math.IsInf(ex.EvacAt, 0) && ex.EvacAt > m {
+			m = ex.EvacAt
+		}
+	}
+	return m
+}

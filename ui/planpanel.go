@@ -1,0 +1,393 @@
+package ui
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"fyne.io/fyne/v2"
+	fcanvas "fyne.io/fyne/v2/canvas"
+	"fyne.io/fyne/v2/container"
+	"fyne.io/fyne/v2/layout"
+	"fyne.io/fyne/v2/theme"
+	"fyne.io/fyne/v2/widget"
+
+	"duosweep/canvas"
+	"duosweep/engine"
+	"duosweep/projects"
+)
+
+// Labels of the two models in the model choice, in engine.Models order.
+var modelLabels = []string{"Radio", "Face to face"}
+
+const bestAvailable = "Best available"
+
+// planPanel is the model and planner choice, the results of the current plan, the heat legend and the
+// candidate table.
+func (a *App) planPanel() fyne.CanvasObject {
+	w := &a.w
+	w.model = widget.NewRadioGroup(modelLabels, func(s string) {
+		for i, l := range modelLabels {
+			if l == s {
+				a.setModel(engine.Models[i])
+			}
+		}
+	})
+	w.model.Horizontal = true
+	w.model.Required = true
+	w.model.SetSelected(modelLabels[0])
+
+	w.planner = widget.NewSelect(nil, func(s string) {
+		name := ""
+		if s != bestAvailable {
+			name = strings.TrimSuffix(s, " (search)")
+		}
+		if name != a.planner {
+			a.planner = name
+			a.replan()
+		}
+	})
+	a.fillPlannerChoices()
+
+	w.busyBar = widget.NewProgressBarInfinite()
+	w.busyBar.Hide()
+	w.busyLabel = widget.NewLabel("")
+	w.busyLabel.Importance = widget.LowImportance
+
+	choices := container.New(layout.NewFormLayout(),
+		widget.NewLabel("Model"), w.model,
+		widget.NewLabel("Planner"), w.planner,
+	)
+
+	w.errLabel = widget.NewLabel("")
+	w.errLabel.Wrapping = fyne.TextWrapWord
+	w.errLabel.Importance = widget.DangerImportance
+	w.errTitle = widget.NewLabelWithStyle("", fyne.TextAlignLeading, fyne.TextStyle{Bold: true})
+	w.errBox = container.NewVBox(w.errTitle, w.errLabel)
+	w.errBox.Hide()
+
+	val := func() *widget.Label {
+		l := widget.NewLabel("—")
+		l.Wrapping = fyne.TextWrapWord
+		return l
+	}
+	w.worst, w.worstExit, w.lower, w.gap, w.expected, w.routes, w.planNote = val(), val(), val(), val(), val(), val(), val()
+	w.worst.TextStyle.Bold = true
+	w.expectedKey = widget.NewLabel("Expected time")
+	w.figures = container.New(layout.NewFormLayout(),
+		widget.NewLabel("Worst case"), w.worst,
+		widget.NewLabel("Worst exit"), w.worstExit,
+		widget.NewLabel("Lower bound"), w.lower,
+		widget.NewLabel("Certified gap"), w.gap,
+		w.expectedKey, w.expected,
+		widget.NewLabel("Route lengths"), w.routes,
+		widget.NewLabel("Plan"), w.planNote,
+	)
+	w.incomplete = widget.NewLabel("")
+	w.incomplete.Wrapping = fyne.TextWrapWord
+	w.incomplete.Importance = widget.DangerImportance
+	w.incomplete.Hide()
+
+	top := container.NewVBox(
+		choices,
+		container.NewBorder(nil, nil, nil, w.busyLabel, w.busyBar),
+		w.errBox,
+		w.figures,
+		w.incomplete,
+		a.legend(),
+		widget.NewLabelWithStyle("Candidates (click a header to sort, a row to replay that exit)", fyne.TextAlignLeading, fyne.TextStyle{Italic: true}),
+	)
+	return container.NewBorder(top, nil, nil, nil, a.candidateTable())
+}
+
+// fillPlannerChoices lists "best available" and every planner that supports the current model.
+func (a *App) fillPlannerChoices() {
+	opts := []string{bestAvailable}
+	sel := bestAvailable
+	for _, p := range engine.PlannersFor(a.model) {
+		label := p.Name
+		if p.Search {
+			label += " (search)"
+		}
+		opts = append(opts, label)
+		if p.Name == a.planner {
+			sel = label
+		}
+	}
+	if sel == bestAvailable {
+		a.planner = ""
+	}
+	a.w.planner.Options = opts
+	a.w.planner.SetSelected(sel)
+}
+
+// setModel switches the model and replans.
+func (a *App) setModel(m engine.Model) {
+	if m == a.model {
+		return
+	}
+	a.model = m
+	a.w.model.SetSelected(modelLabels[m])
+	a.fillPlannerChoices()
+	a.replan()
+}
+
+// refreshResults copies the published result into the plan panel and the canvas overlay.
+func (a *App) refreshResults() {
+	w := &a.w
+	if a.planErr != nil {
+		if a.site == nil {
+			w.errTitle.SetText("The site is not valid yet")
+		} else {
+			w.errTitle.SetText("The planner could not plan this site")
+		}
+		w.errLabel.SetText(a.planErr.Error())
+		w.errBox.Show()
+		w.figures.Hide()
+		w.incomplete.Hide()
+		a.sortExits()
+		w.table.Refresh()
+		return
+	}
+	w.errBox.Hide()
+	w.figures.Show()
+	s, r, p := a.site, a.report, a.plan
+	unit := s.Unit()
+	w.worst.SetText(fmtTime(r.Worst))
+	if r.WorstExit >= 0 {
+		w.worstExit.SetText(nodeName(s, r.WorstExit) + "  (ringed on the canvas)")
+	} else {
+		w.worstExit.SetText("no candidates")
+	}
+	b := r.Bounds
+	w.lower.SetText(fmt.Sprintf("%s\nW = %.1f %s, L + 2·L2 = %.1f %s", fmtTime(b.LB), b.LB1, unit, b.LB2, unit))
+	if math.IsInf(r.Worst, 1) {
+		w.gap.SetText("none (incomplete plan)")
+	} else {
+		w.gap.SetText(fmt.Sprintf("%.1f %% above the lower bound", 100*r.Gap))
+	}
+	if r.HasExpected {
+		w.expectedKey.Show()
+		w.expected.Show()
+		w.expected.SetText(fmtTime(r.Expected))
+	} else {
+		w.expectedKey.Hide()
+		w.expected.Hide()
+	}
+	w.routes.SetText(fmt.Sprintf("%s %.1f %s · %s %.1f %s", s.Names[0], r.RouteLengths[0], unit, s.Names[1], r.RouteLengths[1], unit))
+	note := p.Planner
+	if p.Note != "" {
+		note += ": " + p.Note
+	}
+	w.planNote.SetText(note)
+	if !r.Complete {
+		names := make([]string, len(r.Unvisited))
+		for i, v := range r.Unvisited {
+			names[i] = nodeName(s, v)
+		}
+		w.incomplete.SetText("Incomplete plan: no route visits " + strings.Join(names, ", ") + ". Its worst case is unbounded.")
+		w.incomplete.Show()
+	} else {
+		w.incomplete.Hide()
+	}
+	a.refreshLegend()
+	a.sortExits()
+	w.table.Refresh()
+}
+
+// fmtTime is "mm:ss (123.4 s)".
+func fmtTime(sec float64) string {
+	if math.IsInf(sec, 0) || math.IsNaN(sec) {
+		return projects.FormatDuration(sec)
+	}
+	return fmt.Sprintf("%s (%.1f s)", projects.FormatDuration(sec), sec)
+}
+
+// heatOverlay is the per-report part of the canvas overlay: evacuation time per candidate, the worst
+// exit and the unvisited candidates.
+func heatOverlay(s *engine.Site, r *engine.Report) canvas.Overlay {
+	o := noHeat()
+	o.Evac = make([]float64, s.N)
+	for i := range o.Evac {
+		o.Evac[i] = math.NaN()
+	}
+	for _, ex := range r.Exits {
+		o.Evac[ex.Node] = ex.EvacAt
+	}
+	o.EvacMax = finiteMax(r)
+	o.Worst = r.WorstExit
+	o.Unvisited = append([]int(nil), r.Unvisited...)
+	return o
+}
+
+// noHeat is an overlay with nothing highlighted.
+func noHeat() canvas.Overlay { return canvas.Overlay{Worst: -1, Focus: -1} }
+
+const legendSteps = 24
+
+// legend is the colour scale of the heat colouring, from 0 to the largest evacuation time.
+func (a *App) legend() fyne.CanvasObject {
+	cells := make([]fyne.CanvasObject, legendSteps)
+	for i := range cells {
+		r := fcanvas.NewRectangle(canvas.HeatColor(float64(i) / (legendSteps - 1)))
+		r.SetMinSize(fyne.NewSize(8, 14))
+		cells[i] = r
+	}
+	bar := container.NewGridWithColumns(legendSteps, cells...)
+	a.w.legendLo = widget.NewLabel("00:00")
+	a.w.legendHi = widget.NewLabel("—")
+	a.w.legendLo.Importance = widget.LowImportance
+	a.w.legendHi.Importance = widget.LowImportance
+	title := widget.NewLabel("Evacuation time per candidate")
+	title.Importance = widget.LowImportance
+	return container.NewVBox(
+		container.NewBorder(nil, nil, a.w.legendLo, a.w.legendHi, title),
+		container.NewPadded(bar),
+	)
+}
+
+func (a *App) refreshLegend() {
+	if a.report != nil {
+		a.w.legendHi.SetText(projects.FormatDuration(finiteMax(a.report)))
+	}
+}
+
+// Columns of the candidate table.
+var exitColumns = []string{"Node", "Found at", "Finder", "Evacuated at"}
+
+// candidateTable is the sortable per-candidate table of the current report.
+func (a *App) candidateTable() fyne.CanvasObject {
+	w := &a.w
+	t := widget.NewTable(
+		func() (int, int) { return len(a.exitRows), len(exitColumns) },
+		func() fyne.CanvasObject {
+			l := widget.NewLabel("")
+			l.Truncation = fyne.TextTruncateEllipsis
+			return l
+		},
+		func(id widget.TableCellID, o fyne.CanvasObject) {
+			o.(*widget.Label).SetText(a.exitCell(id.Row, id.Col))
+		},
+	)
+	t.ShowHeaderRow = true
+	t.CreateHeader = func() fyne.CanvasObject {
+		b := widget.NewButton("", nil)
+		b.Importance = widget.LowImportance
+		b.Alignment = widget.ButtonAlignLeading
+		return b
+	}
+	t.UpdateHeader = func(id widget.TableCellID, o fyne.CanvasObject) {
+		b := o.(*widget.Button)
+		col := id.Col
+		if col < 0 || col >= len(exitColumns) {
+			b.SetText("")
+			b.OnTapped = nil
+			return
+		}
+		text := exitColumns[col]
+		b.Icon = nil
+		if col == a.sortCol {
+			if a.sortDesc {
+				b.Icon = theme.MenuDropDownIcon()
+			} else {
+				b.Icon = theme.MenuDropUpIcon()
+			}
+		}
+		b.SetText(text)
+		b.OnTapped = func() { a.sortBy(col) }
+	}
+	t.OnSelected = func(id widget.TableCellID) {
+		if id.Row >= 0 && id.Row < len(a.exitRows) && a.report != nil {
+			a.replayExit(a.report.Exits[a.exitRows[id.Row]].Node)
+		}
+		t.UnselectAll()
+	}
+	widths := []float32{130, 90, 80, 110}
+	for i, wd := range widths {
+		t.SetColumnWidth(i, wd)
+	}
+	w.table = t
+	return t
+}
+
+// sortBy sorts the table by column col; a second click on the same column reverses the order.
+func (a *App) sortBy(col int) {
+	if a.sortCol == col {
+		a.sortDesc = !a.sortDesc
+	} else {
+		a.sortCol, a.sortDesc = col, false
+	}
+	a.sortExits()
+	a.w.table.Refresh()
+}
+
+// sortExits orders a.exitRows (indices into report.Exits) by the chosen column; ties by node index.
+func (a *App) sortExits() {
+	a.exitRows = a.exitRows[:0]
+	if a.report == nil || a.planErr != nil {
+		return
+	}
+	r := a.report
+	for i := range r.Exits {
+		a.exitRows = append(a.exitRows, i)
+	}
+	key := func(i int) (float64, string) {
+		ex := r.Exits[i]
+		switch a.sortCol {
+		case 1:
+			return ex.FoundAt, ""
+		case 2:
+			return 0, a.finderName(ex.Finder)
+		case 3:
+			return ex.EvacAt, ""
+		}
+		return 0, a.site.IDs[ex.Node]
+	}
+	sort.SliceStable(a.exitRows, func(x, y int) bool {
+		i, j := a.exitRows[x], a.exitRows[y]
+		fi, si := key(i)
+		fj, sj := key(j)
+		less, more := fi < fj || (fi == fj && si < sj), fi > fj || (fi == fj && si > sj)
+		if a.sortDesc {
+			less, more = more, less
+		}
+		if less || more {
+			return less
+		}
+		return r.Exits[i].Node < r.Exits[j].Node
+	})
+}
+
+func (a *App) finderName(f int) string {
+	switch f {
+	case engine.Both:
+		return "both"
+	case engine.Nobody:
+		return "nobody"
+	}
+	return a.site.Names[f]
+}
+
+// exitCell is the text of one table cell.
+func (a *App) exitCell(row, col int) string {
+	if a.report == nil || row >= len(a.exitRows) {
+		return ""
+	}
+	ex := a.report.Exits[a.exitRows[row]]
+	switch col {
+	case 0:
+		mark := ""
+		if ex.Node == a.report.WorstExit {
+			mark = " ◆"
+		}
+		return nodeName(a.site, ex.Node) + mark
+	case 1:
+		return projects.FormatDuration(ex.FoundAt)
+	case 2:
+		return a.finderName(ex.Finder)
+	case 3:
+		return projects.FormatDuration(ex.EvacAt)
+	}
+	return ""
+}
