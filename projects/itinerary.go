@@ -91,7 +91,7 @@ func WriteItinerary(w io.Writer, s *engine.Site, p *engine.Plan, r *engine.Repor
 	if math.IsInf(r.Gap, 0) || math.IsNaN(r.Gap) {
 		pf("Certified gap:  none (the plan is incomplete)\n")
 	} else {
-		pf("Certified gap:  %.1f %% above the lower bound at most\n", 100*r.Gap)
+		pf("Certified gap:  %.1f %% (the plan is at most this much slower than the best possible plan)\n", 100*r.Gap)
 	}
 	if r.HasExpected {
 		pf("Expected time:  %s\n", formatSeconds(r.Expected))

@@ -163,14 +163,7 @@ func WriteReport(w io.Writer, s *engine.Site, p *engine.Plan, r *engine.Report) 
 	for a := 0; a < 2; a++ {
 		o.RouteLengths = append(o.RouteLengths, outRouteLength{Agent: s.Names[a], Length: r.RouteLengths[a]})
 	}
-	data, err := json.MarshalIndent(o, "", "  ")
-	if err != nil {
-		return errf("report: %v", err)
-	}
-	if _, err := w.Write(append(data, '\n')); err != nil {
-		return errf("report: %v", err)
-	}
-	return nil
+	return writeJSON(w, "report", o)
 }
 
 // Plan files (the "routes" array of a report; other fields optional).

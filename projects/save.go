@@ -1,6 +1,7 @@
 package projects
 
 import (
+	"bytes"
 	"errors"
 	"io"
 	"io/fs"
@@ -129,13 +130,21 @@ func encode(w io.Writer, sc engine.Scenario) error {
 	for i, c := range sc.Corridors {
 		out.Corridors[i] = outCorridor{From: c.From, To: c.To, Length: c.Length}
 	}
-	data, err := json.MarshalIndent(out, "", "  ")
-	if err != nil {
-		return errf("save: %v", err)
+	return writeJSON(w, "save", out)
+}
+
+// writeJSON writes v indented, without HTML escaping, ending in a newline.
+// The bytes are built in memory first so a failing writer gets one Write.
+func writeJSON(w io.Writer, what string, v any) error {
+	var buf bytes.Buffer
+	enc := json.NewEncoder(&buf)
+	enc.SetEscapeHTML(false)
+	enc.SetIndent("", "  ")
+	if err := enc.Encode(v); err != nil {
+		return errf("%s: %v", what, err)
 	}
-	data = append(data, '\n')
-	if _, err := w.Write(data); err != nil {
-		return errf("save: %v", err)
+	if _, err := w.Write(buf.Bytes()); err != nil {
+		return errf("%s: %v", what, err)
 	}
 	return nil
 }
@@ -216,7 +225,6 @@ func writeFileAtomic(path string, write func(io.Writer) error) (err error) {
 	}
 	return nil
 }
-
 
 // pathErrText returns the reason of a file-system error without the path
 // (the caller names the path once).

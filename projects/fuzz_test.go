@@ -1,0 +1,48 @@
+package projects
+
+import (
+	"bytes"
+	stdjson "encoding/json"
+	"os"
+	"path/filepath"
+	"reflect"
+	"testing"
+)
+
+// FuzzLoad: Load never panics; whatever it accepts is valid JSON for the
+// standard library's encoding/json (a reference parser outside this package),
+// and saves and loads back to an equal scenario.
+func FuzzLoad(f *testing.F) {
+	files, _ := filepath.Glob("testdata/*.sweep.json")
+	for _, p := range files {
+		if b, err := os.ReadFile(p); err == nil {
+			f.Add(b)
+		}
+	}
+	f.Add(DemoJSON())
+	f.Add([]byte(base))
+	f.Add([]byte(`{"format":"duosweep-scenario","version":1,"start":"a","nodes":[{"id":"a"}]}`))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		sc, err := Load(bytes.NewReader(data))
+		if err != nil {
+			if len(sc.Nodes) != 0 || sc.Start != "" {
+				t.Fatalf("half-loaded scenario on error %v", err)
+			}
+			return
+		}
+		if !stdjson.Valid(data) {
+			t.Fatalf("Load accepted input that encoding/json calls invalid: %q", data)
+		}
+		var buf bytes.Buffer
+		if err := Save(&buf, sc); err != nil {
+			t.Fatalf("Save refused a loaded scenario: %v", err)
+		}
+		back, err := Load(bytes.NewReader(buf.Bytes()))
+		if err != nil {
+			t.Fatalf("saved file does not load: %v\n%s", err, buf.Bytes())
+		}
+		if !reflect.DeepEqual(sc, back) {
+			t.Fatalf("round trip changed the scenario:\n%+v\n%+v", sc, back)
+		}
+	})
+}
