@@ -67,6 +67,14 @@ func heat(f float64) color.NRGBA {
 	return color.NRGBA{mix(a.R, b.R), mix(a.G, b.G), mix(a.B, b.B), 0xff}
 }
 
+// heatPalette holds HeatColor at 256 steps, boxed once, for drawing.
+var heatPalette = func() (p [256]color.Color) {
+	for i := range p {
+		p[i] = heat(float64(i) / 255)
+	}
+	return p
+}()
+
 // agentColors: a dark and a light colour (they differ in lightness as well as
 // hue), with the letter colour that reads on each.
 var agentColors = [...]struct{ fill, letter color.NRGBA }{
@@ -92,5 +100,5 @@ func (o *Overlay) evacFrac(i int) (float64, bool) {
 	if !(o.EvacMax > 0) {
 		return 0, true
 	}
-	return v / o.EvacMax, true
+	return math.Max(0, math.Min(1, v/o.EvacMax)), true
 }

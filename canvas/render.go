@@ -58,6 +58,8 @@ type editorRenderer struct {
 
 	objects []fyne.CanvasObject
 	grown   bool
+	corrLen []float64 // length shown by each corridor label
+	unit    string
 
 	// per frame
 	fg, bgc, primary, errc, muted color.Color
@@ -252,7 +254,7 @@ func (r *editorRenderer) Refresh() {
 		c.StrokeColor, c.StrokeWidth = fg, 1.5
 		switch f, ok := ov.evacFrac(i); {
 		case nd.Candidate && ok:
-			c.FillColor = heat(f)
+			c.FillColor = heatPalette[int(math.Round(f*255))]
 		case nd.Candidate:
 			c.FillColor = r.primary
 		default:
@@ -267,11 +269,20 @@ func (r *editorRenderer) Refresh() {
 	for i := n; i < len(r.nodes); i++ {
 		r.nodes[i].Hidden, r.nodeLbl[i].Hidden = true, true
 	}
+	if len(r.corrLen) < m {
+		r.corrLen = append(r.corrLen, make([]float64, m-len(r.corrLen))...)
+	}
 	for i, c := range e.sc.Corridors {
 		l := r.corr[i]
 		l.StrokeColor, l.StrokeWidth = r.muted, 2
-		setText(r.corrLbl[i], strconv.FormatFloat(c.Length, 'f', -1, 64)+" "+unit, r.muted, ts*0.9, true)
+		txt := r.corrLbl[i].Text
+		if c.Length != r.corrLen[i] || unit != r.unit || txt == "" {
+			txt = strconv.FormatFloat(c.Length, 'f', -1, 64) + " " + unit
+			r.corrLen[i] = c.Length
+		}
+		setText(r.corrLbl[i], txt, r.muted, ts*0.9, true)
 	}
+	r.unit = unit
 	for i := m; i < len(r.corr); i++ {
 		r.corr[i].Hidden, r.corrLbl[i].Hidden = true, true
 	}
@@ -296,8 +307,8 @@ func (r *editorRenderer) Refresh() {
 	}
 	for i := range r.badge {
 		r.badge[i].FillColor, r.badge[i].StrokeColor, r.badge[i].StrokeWidth = r.errc, r.bgc, 1
-		setText(r.badgeT[i], "!", color.White, ts, true)
 		r.badgeT[i].TextStyle = fyne.TextStyle{Bold: true}
+		setText(r.badgeT[i], "!", color.White, ts, true)
 	}
 	for i := len(r.unvisited); i < len(r.badge); i++ {
 		r.badge[i].Hidden, r.badgeT[i].Hidden = true, true
@@ -317,8 +328,8 @@ func (r *editorRenderer) Refresh() {
 			letter = string(ch)
 			break
 		}
-		setText(r.agentT[i], letter, ac.letter, ts, true)
 		r.agentT[i].TextStyle = fyne.TextStyle{Bold: true}
+		setText(r.agentT[i], letter, ac.letter, ts, true)
 		for _, l := range r.trails[i] {
 			l.StrokeColor, l.StrokeWidth = withAlpha(ac.fill, 0xa0), 3
 		}
