@@ -566,8 +566,131 @@ func hubOpposite(s *Site) hubVariant {
 	return hubVariant{"opposite", p}
 }
 
+// hubPhase1 is the budget phase towards a hub point: each agent walks its
+// end of the tour as far as it can while being back at hub by T1, and they
+// meet there. left marks the candidates still unexplored (none: ok false).
+type hubPhase1 struct {
+	ra, rb *routeBuilder
+	t      float64 // rendezvous time at hub
+	left   []bool
+	some   bool
+}
+
+func hubBudget(s *Site, cy *hubCycle, hub Point, fa int, T1 float64) (*hubPhase1, bool) {
+	fb := 1 - fa
+	L := cy.Len()
+	a, _ := cy.reach(s, hub, s.Speed[fa]*T1, false)
+	l, _ := cy.reach(s, hub, s.Speed[fb]*T1, true)
+	if a >= L-l {
+		return nil, false // the budget covers the whole tour: cover-then-meet does it
+	}
+	ph := &hubPhase1{ra: newRoute(s, fa), rb: newRoute(s, fb), left: make([]bool, s.N)}
+	ph.ra.cycleFwd(cy, a)
+	ph.rb.cycleBwd(cy, L-l)
+	ph.ra.to(hub)
+	ph.rb.to(hub)
+	ph.t = math.Max(ph.ra.t, ph.rb.t)
+	ph.ra.waitUntil(ph.t)
+	ph.rb.waitUntil(ph.t)
+	ph.ra.rendezvous()
+	ph.rb.rendezvous()
+	ta, err1 := s.Trajectory(ph.ra.route(), fa)
+	tb, err2 := s.Trajectory(ph.rb.route(), fb)
+	if err1 != nil || err2 != nil {
+		return nil, false
+	}
+	fva, fvb := ta.FirstVisits(), tb.FirstVisits()
+	for v := 0; v < s.N; v++ {
+		if s.Candidate[v] && math.IsInf(fva[v], 1) && math.IsInf(fvb[v], 1) {
+			ph.left[v], ph.some = true, true
+		}
+	}
+	return ph, true
+}
+
+// together lets both agents walk, from the hub, the depth-first tour of what
+// is left (farthest branch last) up to its last new candidate.
+func (ph *hubPhase1) together(s *Site, sub *hubView, cy2 *hubCycle, fa int, note string) *Plan {
+	end := 0
+	seen := make([]bool, s.N)
+	for i, v := range cy2.w.Nodes {
+		if ph.left[v] && !seen[v] {
+			seen[v] = true
+			end = i
+		}
+	}
+	qa, qb := ph.ra.clone(), ph.rb.clone()
+	// by node index, not arclength: the last candidate is reached exactly
+	qa.toNodes(cy2.w.Nodes[:end+1])
+	qb.toNodes(cy2.w.Nodes[:end+1])
+	p := &Plan{Note: note + "both search the rest together"}
+	p.Routes[fa], p.Routes[1-fa] = qa.route(), qb.route()
+	return p
+}
+
+func deepLastIn(sub *hubView) func(v int, kids []int) []int {
+	return func(v int, kids []int) []int {
+		sort.SliceStable(kids, func(i, j int) bool { return sub.reach[kids[i]] < sub.reach[kids[j]] })
+		return kids
+	}
+}
+
+// entry returns the path from the view's root down to the first node where
+// the needed part branches or holds a target (nil when that is the root).
+func (vw *hubView) entry() []int {
+	var path []int
+	var tops []int
+	for _, t := range vw.top {
+		if vw.need[t] {
+			tops = append(tops, t)
+		}
+	}
+	if vw.rootNode >= 0 {
+		tops = vw.kids(vw.rootNode)
+		if vw.need[vw.rootNode] && vw.weight[vw.rootNode] == 0 {
+			return nil
+		}
+	}
+	for len(tops) == 1 {
+		v := tops[0]
+		path = append(path, v)
+		if vw.need[v] && vw.weight[v]-vw.plen[v] == 0 {
+			break // a target leaf
+		}
+		tops = vw.kids(v)
+	}
+	return path
+}
+
+// along returns the point at distance x from the view's root along path
+// (a downward node path of the view starting next to the root).
+func (vw *hubView) along(path []int, x float64) Point {
+	s := vw.s
+	for _, v := range path {
+		if vw.depth[v] < x {
+			continue
+		}
+		if p := vw.par[v]; p >= 0 {
+			return s.Canon(Point{From: v, To: int(p), Offset: vw.depth[v] - x})
+		}
+		if vw.rootNode >= 0 {
+			return s.Canon(Point{From: v, To: vw.rootNode, Offset: vw.depth[v] - x})
+		}
+		other := vw.root.To
+		if other == v {
+			other = vw.root.From
+		}
+		return s.Canon(Point{From: v, To: other, Offset: vw.depth[v] - x})
+	}
+	if len(path) > 0 {
+		return At(path[len(path)-1])
+	}
+	return vw.root
+}
+
 // hubPhases builds, from one arranged tour, the cover-then-meet plan and the
-// budget plans with each phase-2 rule.
+// budget plans with each phase-2 rule, at the centroid and at hubs moved
+// from it towards what the centroid plan leaves unexplored.
 func hubPhases(s *Site, cy *hubCycle, c Point, fa int, T1 float64, name string) []hubVariant {
 	fb := 1 - fa
 	var out []hubVariant
@@ -589,71 +712,19 @@ func hubPhases(s *Site, cy *hubCycle, c Point, fa int, T1 float64, name string) 
 		p.Routes[fa], p.Routes[fb] = ra.route(), rb.route()
 		out = append(out, hubVariant{"cover-meet", p})
 	}
-	// budget T1: each goes as far as it can while being back at c by T1
-	L := cy.Len()
-	a, _ := cy.reach(s, c, s.Speed[fa]*T1, false)
-	l, _ := cy.reach(s, c, s.Speed[fb]*T1, true)
-	if a >= L-l {
-		return out // the budget covers the whole tour: cover-then-meet already does it
-	}
-	ra, rb := newRoute(s, fa), newRoute(s, fb)
-	ra.cycleFwd(cy, a)
-	rb.cycleBwd(cy, L-l)
-	ra.to(c)
-	rb.to(c)
-	t := math.Max(ra.t, rb.t)
-	ra.waitUntil(t)
-	rb.waitUntil(t)
-	ra.rendezvous()
-	rb.rendezvous()
-	// what phase 1 left unexplored
-	left := make([]bool, s.N)
-	some := false
-	{
-		ta, err1 := s.Trajectory(ra.route(), fa)
-		tb, err2 := s.Trajectory(rb.route(), fb)
-		if err1 != nil || err2 != nil {
-			return out
-		}
-		fva, fvb := ta.FirstVisits(), tb.FirstVisits()
-		for v := 0; v < s.N; v++ {
-			if s.Candidate[v] && math.IsInf(fva[v], 1) && math.IsInf(fvb[v], 1) {
-				left[v], some = true, true
-			}
-		}
-	}
-	if !some {
+	ph, ok := hubBudget(s, cy, c, fa, T1)
+	if !ok || !ph.some {
 		return out
 	}
-	sub := newHubView(s, c, left)
-	deepLast := func(v int, kids []int) []int {
-		sort.SliceStable(kids, func(i, j int) bool { return sub.reach[kids[i]] < sub.reach[kids[j]] })
-		return kids
-	}
-	cy2 := sub.tour(deepLast)
+	sub := newHubView(s, c, ph.left)
+	cy2 := sub.tour(deepLastIn(sub))
 	L2 := cy2.Len()
-	note := fmt.Sprintf("hub: %s, each back at the centroid by t=%.6g (rendezvous); then ", name, t)
-	// phase 2, together: both walk the leftover tour up to its last new candidate
-	{
-		end := 0.0
-		seen := make([]bool, s.N)
-		for i, v := range cy2.w.Nodes {
-			if left[v] && !seen[v] {
-				seen[v] = true
-				end = cy2.lead + cy2.w.Arc[i]
-			}
-		}
-		qa, qb := ra.clone(), rb.clone()
-		qa.cycleFwd(cy2, end)
-		qb.cycleFwd(cy2, end)
-		p := &Plan{Note: note + "both search the rest together"}
-		p.Routes[fa], p.Routes[fb] = qa.route(), qb.route()
-		out = append(out, hubVariant{"budget+together", p})
-	}
+	note := fmt.Sprintf("hub: %s, each back at the centroid by t=%.6g (rendezvous); then ", name, ph.t)
+	out = append(out, hubVariant{"budget+together", ph.together(s, sub, cy2, fa, note)})
 	// phase 2, opposite tours of the rest with a rendezvous where they meet
 	{
 		m := L2 * s.Speed[fa] / (s.Speed[fa] + s.Speed[fb])
-		qa, qb := ra.clone(), rb.clone()
+		qa, qb := ph.ra.clone(), ph.rb.clone()
 		qa.cycleFwd(cy2, m)
 		qb.cycleBwd(cy2, m)
 		qa.rendezvous()
@@ -662,22 +733,28 @@ func hubPhases(s *Site, cy *hubCycle, c Point, fa int, T1 float64, name string) 
 		p.Routes[fa], p.Routes[fb] = qa.route(), qb.route()
 		out = append(out, hubVariant{"budget+opposite", p})
 	}
-	// phase 2, split the rest and meet at the centroid again
-	{
-		m, _ := cy2.meetAtHub(s, c, s.Speed[fa], s.Speed[fb])
-		qa, qb := ra.clone(), rb.clone()
-		qa.cycleFwd(cy2, m)
-		qb.cycleBwd(cy2, m)
-		qa.to(c)
-		qb.to(c)
-		t2 := math.Max(qa.t, qb.t)
-		qa.waitUntil(t2)
-		qb.waitUntil(t2)
-		qa.rendezvous()
-		qb.rendezvous()
-		p := &Plan{Note: note + fmt.Sprintf("split the rest and meet at the centroid again at t=%.6g", t2)}
-		p.Routes[fa], p.Routes[fb] = qa.route(), qb.route()
-		out = append(out, hubVariant{"budget+hub", p})
+	// hubs moved from c towards the unexplored part: phase-1 exits get up to
+	// δ farther, the rest δ nearer
+	path := sub.entry()
+	if len(path) == 0 {
+		return out
+	}
+	reachE := sub.depth[path[len(path)-1]]
+	for _, f := range []float64{0.25, 0.5, 0.75} {
+		h := sub.along(path, f*reachE)
+		ph2, ok := hubBudget(s, cy, h, fa, T1)
+		if !ok {
+			continue
+		}
+		note := fmt.Sprintf("hub: %s, each back by t=%.6g at a point %.0f%% of the way from the centroid to what it would leave unexplored (rendezvous); then ", name, ph2.t, 100*f)
+		if !ph2.some {
+			p := &Plan{Note: note + "nothing is left"}
+			p.Routes[fa], p.Routes[fb] = ph2.ra.route(), ph2.rb.route()
+			out = append(out, hubVariant{"shifted", p})
+			continue
+		}
+		sub2 := newHubView(s, h, ph2.left)
+		out = append(out, hubVariant{"shifted+together", ph2.together(s, sub2, sub2.tour(deepLastIn(sub2)), fa, note)})
 	}
 	return out
 }
