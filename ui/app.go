@@ -67,6 +67,7 @@ type App struct {
 	// jobs counts background planning runs whose results are not yet posted.
 	jobs sync.WaitGroup
 
+	fit           *fitLayout
 	autosaveTimer *time.Timer
 	recovery      string // recovery file path (computed once; tests set it)
 
@@ -143,19 +144,50 @@ func (a *App) Editor() *canvas.Editor { return a.editor }
 // layout assembles the window: canvas centre, inspector and plan panel at the side, timeline and notice
 // below.
 func (a *App) layout() fyne.CanvasObject {
-	side := container.NewVSplit(a.inspectorPanel(), a.sideTabs())
-	side.Offset = 0.34
-	main := container.NewHSplit(a.editor, side)
-	main.Offset = 0.66
+	a.fit = &fitLayout{editor: a.editor}
+	centre := container.New(a.fit, a.editor)
+	right := container.NewHSplit(centre, a.sideTabs())
+	right.Offset = 0.62
+	main := container.NewHSplit(a.inspectorPanel(), right)
+	main.Offset = 0.2
 	a.w.status = widget.NewLabel("")
 	a.w.status.Truncation = fyne.TextTruncateEllipsis
 	notice := widget.NewLabel(Notice)
 	notice.Importance = widget.LowImportance
-	notice.Truncation = fyne.TextTruncateEllipsis
 	bottom := container.NewVBox(widget.NewSeparator(), a.timelinePanel(), widget.NewSeparator(),
-		container.NewBorder(nil, nil, nil, a.w.status, notice))
+		container.NewBorder(nil, nil, nil, notice, a.w.status))
 	return container.NewBorder(a.toolbar(), bottom, nil, nil, main)
 }
+
+// fitLayout gives the editor its whole cell and keeps the site fitted in view while the window
+// changes size, until the user pans or zooms.
+type fitLayout struct {
+	editor *canvas.Editor
+	fitted bool
+	zoom   float64
+	origin fyne.Position
+}
+
+func (l *fitLayout) Layout(objs []fyne.CanvasObject, size fyne.Size) {
+	z, o := l.editor.View()
+	untouched := !l.fitted || (z == l.zoom && o == l.origin)
+	for _, obj := range objs {
+		obj.Move(fyne.NewPos(0, 0))
+		obj.Resize(size)
+	}
+	if untouched && size.Width > 0 && size.Height > 0 {
+		l.fitNow()
+	}
+}
+
+// fitNow fits the site and remembers the view as "not moved by the user".
+func (l *fitLayout) fitNow() {
+	l.editor.FitView()
+	l.zoom, l.origin = l.editor.View()
+	l.fitted = true
+}
+
+func (l *fitLayout) MinSize(objs []fyne.CanvasObject) fyne.Size { return l.editor.MinSize() }
 
 // sideTabs holds the plan panel and the radio-versus-face-to-face view.
 func (a *App) sideTabs() fyne.CanvasObject {
@@ -182,7 +214,7 @@ func (a *App) setScenario(sc engine.Scenario, path string, dirty bool) {
 	a.path = path
 	a.editor.SetScenario(sc)
 	a.editor.Select(canvas.Selection{Kind: canvas.SelNone})
-	a.editor.FitView()
+	a.fit.fitNow()
 	a.setDirty(dirty)
 	a.refreshUndo()
 	a.refreshInspector()
@@ -242,3 +274,6 @@ func nodeName(s *engine.Site, v int) string {
 	}
 	return s.IDs[v]
 }
+
+// fitView fits the site in view (toolbar and menu) and keeps it fitted while the window is resized.
+func (a *App) fitView() { a.fit.fitNow() }

@@ -50,7 +50,7 @@ type widgets struct {
 	play, next, rewind, worstBtn *widget.Button
 	speed                        *widget.Select
 	slider                       *widget.Slider
-	clock, replayInfo            *widget.Label
+	clock, replayInfo, rate      *widget.Label
 	events                       *widget.List
 }
 
@@ -85,7 +85,7 @@ func (a *App) toolbar() fyne.CanvasObject {
 		widget.NewSeparator(),
 		a.w.tool,
 		widget.NewSeparator(),
-		btn("Fit", theme.ZoomFitIcon(), a.editor.FitView),
+		btn("Fit", theme.ZoomFitIcon(), a.fitView),
 		btn("Tidy", theme.ViewRefreshIcon(), a.editor.Tidy),
 		btn("Delete", theme.DeleteIcon(), func() { a.inspectorError(a.editor.DeleteSelection()) }),
 		layout.NewSpacer(),
@@ -148,7 +148,7 @@ func (a *App) mainMenu() *fyne.MainMenu {
 		item("Redo", ctrlShift(fyne.KeyZ), func() { a.editor.Redo() }),
 		fyne.NewMenuItemSeparator(),
 		fyne.NewMenuItem("Delete selection", func() { a.inspectorError(a.editor.DeleteSelection()) }),
-		fyne.NewMenuItem("Fit site in view", a.editor.FitView),
+		fyne.NewMenuItem("Fit site in view", a.fitView),
 		fyne.NewMenuItem("Tidy layout", a.editor.Tidy),
 	)
 	plan := fyne.NewMenu("Plan",

@@ -114,13 +114,13 @@ func (a *App) replan() {
 // publish shows a planning result. It runs on the UI goroutine.
 func (a *App) publish(gen uint64, res planResult) {
 	a.shownGen = gen
-	a.setBusy(false)
 	a.planErr = res.err
+	a.comparison = nil
 	if res.err != nil {
 		// the canvas keeps showing the scenario; the panel shows the message
 		a.site, a.plan, a.report = res.site, nil, nil
-		a.comparison = nil
 		a.heat = noHeat()
+		a.setBusy(false)
 		a.setReplay(nil)
 		a.refreshResults()
 		a.refreshComparison()
@@ -128,7 +128,7 @@ func (a *App) publish(gen uint64, res planResult) {
 	}
 	a.site, a.plan, a.report = res.site, res.plan, res.report
 	a.heat = heatOverlay(res.site, res.report)
-	a.comparison = nil
+	a.setBusy(false)
 	if a.focus >= 0 {
 		if _, ok := res.report.ExitFor(a.focus); !ok {
 			a.focus = -1

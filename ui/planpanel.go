@@ -96,9 +96,12 @@ func (a *App) planPanel() fyne.CanvasObject {
 		w.figures,
 		w.incomplete,
 		a.legend(),
-		widget.NewLabelWithStyle("Candidates (click a header to sort, a row to replay that exit)", fyne.TextAlignLeading, fyne.TextStyle{Italic: true}),
 	)
-	return container.NewBorder(top, nil, nil, nil, a.candidateTable())
+	hint := widget.NewLabelWithStyle("Candidates: click a header to sort, a row to replay that exit", fyne.TextAlignLeading, fyne.TextStyle{Italic: true})
+	hint.Truncation = fyne.TextTruncateEllipsis
+	split := container.NewVSplit(container.NewVScroll(top), container.NewBorder(hint, nil, nil, nil, a.candidateTable()))
+	split.Offset = 0.62
+	return split
 }
 
 // fillPlannerChoices lists "best available" and every planner that supports the current model.
@@ -239,8 +242,7 @@ func (a *App) legend() fyne.CanvasObject {
 	a.w.legendHi = widget.NewLabel("—")
 	a.w.legendLo.Importance = widget.LowImportance
 	a.w.legendHi.Importance = widget.LowImportance
-	title := widget.NewLabel("Evacuation time per candidate")
-	title.Importance = widget.LowImportance
+	title := widget.NewLabelWithStyle("Evacuation time per candidate", fyne.TextAlignCenter, fyne.TextStyle{})
 	return container.NewVBox(
 		container.NewBorder(nil, nil, a.w.legendLo, a.w.legendHi, title),
 		container.NewPadded(bar),

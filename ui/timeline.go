@@ -17,6 +17,10 @@ import (
 	"duosweep/projects"
 )
 
+// PlaySeconds is how long playback of the whole timeline takes at 1×; the speed choice scales it
+// (0.5× to 16×). The real-time factor is shown beside the choice.
+const PlaySeconds = 30.0
+
 // Playback speeds offered, as labels and factors.
 var (
 	speedLabels  = []string{"0.5×", "1×", "2×", "4×", "8×", "16×"}
@@ -76,7 +80,10 @@ func (a *App) timelinePanel() fyne.CanvasObject {
 				a.speed = speedFactors[i]
 			}
 		}
+		a.refreshRate()
 	})
+	w.rate = widget.NewLabel("")
+	w.rate.Importance = widget.LowImportance
 	w.speed.SetSelected("1×")
 	w.slider = widget.NewSlider(0, 1)
 	w.slider.Step = 0.001
@@ -117,12 +124,12 @@ func (a *App) timelinePanel() fyne.CanvasObject {
 		a.setTime(a.replay.Events[i].T)
 	}
 
-	controls := container.NewHBox(w.rewind, w.play, w.next, w.speed, w.worstBtn)
+	controls := container.NewHBox(w.rewind, w.play, w.next, w.speed, w.rate, w.worstBtn)
 	left := container.NewVBox(
 		container.NewBorder(nil, nil, widget.NewLabel("Time"), w.clock, w.slider),
 		container.NewBorder(nil, nil, controls, nil, w.replayInfo),
 	)
-	list := container.New(&minLayout{min: fyne.NewSize(420, 112)}, w.events)
+	list := container.New(&minLayout{min: fyne.NewSize(440, 112)}, w.events)
 	a.anim = &fyne.Animation{Duration: time.Second, RepeatCount: fyne.AnimationRepeatForever, Curve: fyne.AnimationLinear, Tick: a.tick}
 	return container.NewBorder(nil, nil, nil, list, container.NewVBox(layout.NewSpacer(), left, layout.NewSpacer()))
 }
@@ -211,6 +218,7 @@ func (a *App) setReplay(rp *engine.Replay) {
 		a.w.events.Refresh()
 	}
 	a.refreshReplayInfo()
+	a.refreshRate()
 	a.setTime(math.Min(a.t, a.tMax))
 }
 
@@ -357,13 +365,28 @@ func (a *App) tick(float32) {
 	if dt <= 0 {
 		return
 	}
-	t := a.t + dt*a.speed
+	t := a.t + dt*a.rate()
 	if t >= a.tMax {
 		a.setTime(a.tMax)
 		a.stop()
 		return
 	}
 	a.setTime(t)
+}
+
+// rate is the playback rate in site seconds per wall-clock second.
+func (a *App) rate() float64 { return a.speed * a.tMax / PlaySeconds }
+
+// refreshRate shows the real-time factor of the chosen speed.
+func (a *App) refreshRate() {
+	if a.w.rate == nil {
+		return
+	}
+	if r := a.rate(); r > 0 {
+		a.w.rate.SetText(fmt.Sprintf("%.3g× real time", r))
+	} else {
+		a.w.rate.SetText("")
+	}
 }
 
 // stepNext jumps to the next event after the current time.
