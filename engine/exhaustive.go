@@ -116,8 +116,8 @@ type exAgent struct {
 	pos    int     // node at the end of the committed route
 	T      float64 // time at the end of the committed route
 	status int
-	from   int // origin of the last leg
-	rv     int // rendezvous node while waiting
+	from   int   // origin of the last leg
+	rv     int   // rendezvous node while waiting
 	ver    int64 // changes whenever the committed route or status changes
 }
 
