@@ -1,0 +1,215 @@
+package engine_test
+
+// Fixed-seed benchmarks on random trees of 10^4, 10^5 and 10^6 nodes. They
+// run only with -bench; every benchmark reports ns/node. Run them with
+//
+//	go test -run X -bench . -benchtime 1x ./engine/
+//
+// (or a larger -benchtime for steadier figures).
+
+import (
+	"bytes"
+	"context"
+	"fmt"
+	"math/rand/v2"
+	"strconv"
+	"testing"
+
+	"duosweep/engine"
+	"duosweep/projects"
+)
+
+var benchSizes = []int{10_000, 100_000, 1_000_000}
+
+// bigTree is an O(n) generator of its own (independent of engine/gen): node
+// i > 0 hangs off node i−1 (half the time) or a uniformly random earlier
+// node, so the tree has both long drifts and bushy parts; lengths are
+// integers 1..9 or reals; every node but the start is a candidate; equal
+// speeds.
+func bigTree(n int, seed uint64) engine.Scenario {
+	rng := rand.New(rand.NewPCG(seed, 99))
+	sc := engine.Scenario{Name: "bench", Start: "n0", Nodes: make([]engine.Node, n), Corridors: make([]engine.Corridor, 0, n-1)}
+	for i := range sc.Nodes {
+		sc.Nodes[i] = engine.Node{ID: "n" + strconv.Itoa(i), Candidate: i > 0}
+	}
+	for i := 1; i < n; i++ {
+		p := i - 1
+		if rng.IntN(2) == 0 {
+			p = rng.IntN(i)
+		}
+		w := float64(1 + rng.IntN(9))
+		if rng.IntN(2) == 0 {
+			w = 0.5 + 9*rng.Float64()
+		}
+		sc.Corridors = append(sc.Corridors, engine.Corridor{From: sc.Nodes[p].ID, To: sc.Nodes[i].ID, Length: w})
+	}
+	return sc
+}
+
+var benchTrees = map[int]engine.Scenario{}
+
+func benchTree(n int) engine.Scenario {
+	if sc, ok := benchTrees[n]; ok {
+		return sc
+	}
+	sc := bigTree(n, uint64(n))
+	benchTrees[n] = sc
+	return sc
+}
+
+func benchSite(b *testing.B, n int) *engine.Site {
+	b.Helper()
+	s, err := engine.NewSite(benchTree(n))
+	if err != nil {
+		b.Fatal(err)
+	}
+	return s
+}
+
+func perNode(b *testing.B, n int) {
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(n), "ns/node")
+}
+
+func sizeName(n int) string { return fmt.Sprintf("n=%d", n) }
+
+func BenchmarkNewSite(b *testing.B) {
+	for _, n := range benchSizes {
+		b.Run(sizeName(n), func(b *testing.B) {
+			sc := benchTree(n)
+			b.ResetTimer()
+			for b.Loop() {
+				if _, err := engine.NewSite(sc); err != nil {
+					b.Fatal(err)
+				}
+			}
+			perNode(b, n)
+		})
+	}
+}
+
+// BenchmarkComputeBounds: ComputeBounds caches its result on the site, so
+// every iteration builds a fresh site with the timer stopped and measures
+// only the first (uncached) ComputeBounds call.
+func BenchmarkComputeBounds(b *testing.B) {
+	for _, n := range benchSizes {
+		b.Run(sizeName(n), func(b *testing.B) {
+			sc := benchTree(n)
+			b.ResetTimer()
+			for i := 0; i < b.N; i++ {
+				b.StopTimer()
+				s, err := engine.NewSite(sc)
+				if err != nil {
+					b.Fatal(err)
+				}
+				b.StartTimer()
+				_ = engine.ComputeBounds(s)
+			}
+			perNode(b, n)
+		})
+	}
+}
+
+// BenchmarkPlanner runs every non-search planner under every model it
+// supports, on a fresh site per iteration (built with the timer stopped, so
+// that nothing cached on the site from an earlier iteration is reused).
+func BenchmarkPlanner(b *testing.B) {
+	for _, info := range engine.Planners() {
+		if info.Search {
+			continue
+		}
+		for _, m := range info.Models {
+			for _, n := range benchSizes {
+				b.Run(info.Name+"/"+m.String()+"/"+sizeName(n), func(b *testing.B) {
+					sc := benchTree(n)
+					b.ResetTimer()
+					for i := 0; i < b.N; i++ {
+						b.StopTimer()
+						s, err := engine.NewSite(sc)
+						if err != nil {
+							b.Fatal(err)
+						}
+						b.StartTimer()
+						if _, err := engine.MakePlan(context.Background(), s, info.Name, m, engine.Options{}); err != nil {
+							b.Fatal(err)
+						}
+					}
+					perNode(b, n)
+				})
+			}
+		}
+	}
+}
+
+// BenchmarkEvaluate evaluates the best available plan for each model under that model.
+func BenchmarkEvaluate(b *testing.B) {
+	for _, m := range engine.Models {
+		for _, n := range benchSizes {
+			b.Run(m.String()+"/"+sizeName(n), func(b *testing.B) {
+				s := benchSite(b, n)
+				p, _, err := engine.BestPlan(context.Background(), s, m)
+				if err != nil {
+					b.Fatal(err)
+				}
+				b.ResetTimer()
+				for b.Loop() {
+					if _, err := engine.Evaluate(s, p, m); err != nil {
+						b.Fatal(err)
+					}
+				}
+				perNode(b, n)
+			})
+		}
+	}
+}
+
+// BenchmarkPlanAndEvaluateBoth is what pressing "plan" costs on a loaded
+// site: BestPlan under both models (each runs every non-search planner and
+// evaluates its plan), on a fresh site per iteration.
+func BenchmarkPlanAndEvaluateBoth(b *testing.B) {
+	for _, n := range benchSizes {
+		b.Run(sizeName(n), func(b *testing.B) {
+			sc := benchTree(n)
+			b.ResetTimer()
+			for i := 0; i < b.N; i++ {
+				b.StopTimer()
+				s, err := engine.NewSite(sc)
+				if err != nil {
+					b.Fatal(err)
+				}
+				b.StartTimer()
+				for _, m := range engine.Models {
+					if _, _, err := engine.BestPlan(context.Background(), s, m); err != nil {
+						b.Fatal(err)
+					}
+				}
+			}
+			perNode(b, n)
+		})
+	}
+}
+
+// BenchmarkLoadAndValidate is what opening a scenario file costs: parse the
+// JSON written by projects.Save, then NewSite.
+func BenchmarkLoadAndValidate(b *testing.B) {
+	for _, n := range benchSizes {
+		b.Run(sizeName(n), func(b *testing.B) {
+			var buf bytes.Buffer
+			if err := projects.Save(&buf, benchTree(n)); err != nil {
+				b.Fatal(err)
+			}
+			data := buf.Bytes()
+			b.SetBytes(int64(len(data)))
+			b.ResetTimer()
+			for b.Loop() {
+				sc, err := projects.Load(bytes.NewReader(data))
+				if err != nil {
+					b.Fatal(err)
+				}
+				if _, err := engine.NewSite(sc); err != nil {
+					b.Fatal(err)
+				}
+			}
+			perNode(b, n)
+		})
+	}
+}
