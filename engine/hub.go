@@ -476,6 +476,10 @@ func (it *hubItems) split(target float64) []bool {
 	return in
 }
 
+// hubLargeSite is the node count above which only one order of the leftover
+// parts is tried (fewer exact evaluations on very large sites).
+const hubLargeSite = 100_000
+
 // hubVariant is one candidate plan with a short tag naming how it was made.
 type hubVariant struct {
 	tag  string
@@ -498,6 +502,8 @@ func hubVariants(s *Site) []hubVariant {
 	straddle := []bool{false, true}
 	if s.Speed[0] != s.Speed[1] {
 		roles = []int{0, 1}
+		straddle = []bool{false}
+	} else if s.N > hubLargeSite {
 		straddle = []bool{false}
 	}
 	for _, fa := range roles {
@@ -718,21 +724,8 @@ func hubPhases(s *Site, cy *hubCycle, c Point, fa int, T1 float64, name string) 
 	}
 	sub := newHubView(s, c, ph.left)
 	cy2 := sub.tour(deepLastIn(sub))
-	L2 := cy2.Len()
 	note := fmt.Sprintf("hub: %s, each back at the centroid by t=%.6g (rendezvous); then ", name, ph.t)
 	out = append(out, hubVariant{"budget+together", ph.together(s, sub, cy2, fa, note)})
-	// phase 2, opposite tours of the rest with a rendezvous where they meet
-	{
-		m := L2 * s.Speed[fa] / (s.Speed[fa] + s.Speed[fb])
-		qa, qb := ph.ra.clone(), ph.rb.clone()
-		qa.cycleFwd(cy2, m)
-		qb.cycleBwd(cy2, m)
-		qa.rendezvous()
-		qb.rendezvous()
-		p := &Plan{Note: note + "opposite tours of the rest, rendezvous where they meet"}
-		p.Routes[fa], p.Routes[fb] = qa.route(), qb.route()
-		out = append(out, hubVariant{"budget+opposite", p})
-	}
 	// hubs moved from c towards the unexplored part: phase-1 exits get up to
 	// δ farther, the rest δ nearer
 	path := sub.entry()

@@ -211,6 +211,54 @@ func (bt *bruteTree) distFrom(s *Site, c Point) []float64 {
 	return d
 }
 
+func TestCentroidHandExamples(t *testing.T) {
+	// Derived by hand: star with leaves 1, 1, 3 from the centre (W = 5). The
+	// 3-leaf side weighs 3 − x at offset x from the centre, the rest 2 + x:
+	// balanced at x = 0.5.
+	s, err := NewSite(star(1, 1, 3))
+	require.NoError(t, err)
+	c := s.Centroid()
+	l3, _ := s.Index("l3")
+	require.False(t, c.IsNode())
+	require.InDelta(t, 0.5, s.PointDist(At(s.Start), c), 1e-12)
+	require.InDelta(t, 2.5, s.NodeDist(c, l3), 1e-12)
+	// star with four unit leaves: the centre itself (each component weighs 1 ≤ 2).
+	s, err = NewSite(star(1, 1, 1, 1))
+	require.NoError(t, err)
+	require.Equal(t, At(s.Start), s.Centroid())
+}
+
+func TestHubHandExamples(t *testing.T) {
+	ctx := context.Background()
+	// Derived by hand: star with four unit leaves, start at the centre. The
+	// parts split evenly (two leaves each): both are back at the centre at
+	// t = 4 = W, and an exit found earlier is reached by t = 4 + 1 = 5.
+	// MODEL.md §5: no plan does better than 5 here (LB = 4), so the plan is optimal.
+	s, err := NewSite(star(1, 1, 1, 1))
+	require.NoError(t, err)
+	p, err := MakePlan(ctx, s, "hub-rendezvous", FaceToFace, Options{})
+	require.NoError(t, err)
+	r, err := Evaluate(s, p, FaceToFace)
+	require.NoError(t, err)
+	require.True(t, r.Complete)
+	require.InDelta(t, 5.0, r.Worst, 1e-9)
+	require.InDelta(t, 4.0, r.Bounds.LB, 1e-12)
+	// Derived by hand: star 1, 1, 3 (W = LB = 5). Whatever the plan, the
+	// face-to-face worst is at most 1.5·W = 7.5 here (the assertion of MODEL.md §6).
+	s, err = NewSite(star(1, 1, 3))
+	require.NoError(t, err)
+	p, err = MakePlan(ctx, s, "hub-rendezvous", FaceToFace, Options{})
+	require.NoError(t, err)
+	r, err = Evaluate(s, p, FaceToFace)
+	require.NoError(t, err)
+	require.LessOrEqual(t, r.Worst, 7.5+1e-9)
+	require.GreaterOrEqual(t, r.Worst, 5.0-1e-9)
+	t.Logf("star 1,1,3: worst %g (%s)", r.Worst, p.Note)
+	// radio is refused: the planner is face to face only
+	_, err = MakePlan(ctx, s, "hub-rendezvous", Radio, Options{})
+	require.ErrorIs(t, err, ErrModelNotSupported)
+}
+
 func TestCentroidBruteForce(t *testing.T) {
 	r := newTestRand(424242)
 	for i := 0; i < 2000; i++ {
@@ -329,6 +377,7 @@ type hubStat struct {
 	maxLB, maxW   float64
 	argLB         string
 	proved, maxPW float64
+	maxRef        float64 // worst / (T1 + W/(2·slower speed)), = worst/(1.5·W) at equal speeds
 }
 
 func TestHubRendezvousRandomTrees(t *testing.T) {
@@ -372,6 +421,9 @@ func TestHubRendezvousRandomTrees(t *testing.T) {
 			st.maxLB, st.argLB = q, fmt.Sprintf("tree %d seed %d", i, seed)
 		}
 		st.maxW = math.Max(st.maxW, wr)
+		T1 := 2 * b.W / (s.Speed[0] + s.Speed[1])
+		ref := T1 + b.W/(2*math.Min(s.Speed[0], s.Speed[1]))
+		st.maxRef = math.Max(st.maxRef, rep.Worst/ref)
 		if !unequal && rep.Worst > 1.5*b.LB*(1+1e-9) {
 			// the published 1.5-approximation for two agents face to face
 			// (MODEL.md §6, hub rendezvous) is asserted against LB
@@ -379,8 +431,7 @@ func TestHubRendezvousRandomTrees(t *testing.T) {
 		}
 		if hubExactSplitExists(t, s, sc) {
 			// proven in docs/hub-rendezvous.md (Theorem 1)
-			T1 := 2 * b.W / (s.Speed[0] + s.Speed[1])
-			bound := T1 + b.W/(2*math.Min(s.Speed[0], s.Speed[1]))
+			bound := ref
 			require.LessOrEqual(t, rep.Worst, bound*(1+1e-9)+1e-9, "tree %d (%s, seed %d): exact split, worst %g > %g", i, fam, seed, rep.Worst, bound)
 			st.proved++
 			st.maxPW = math.Max(st.maxPW, rep.Worst/bound)
@@ -393,7 +444,7 @@ func TestHubRendezvousRandomTrees(t *testing.T) {
 	sort.Strings(keys)
 	for _, k := range keys {
 		st := stats[k]
-		t.Logf("%-20s trees %4d  max worst/LB %.4f (%s)  max worst/W %.4f  exact splits %3.0f (max worst/bound %.4f)", k, st.n, st.maxLB, st.argLB, st.maxW, st.proved, st.maxPW)
+		t.Logf("%-20s trees %4d  max worst/LB %.4f (%s)  max worst/W %.4f  max worst/(T1+W/(2v_min)) %.4f  exact splits %3.0f (max worst/bound %.4f)", k, st.n, st.maxLB, st.argLB, st.maxW, st.maxRef, st.proved, st.maxPW)
 	}
 	var tags []string
 	for k, v := range wins {
@@ -402,4 +453,36 @@ func TestHubRendezvousRandomTrees(t *testing.T) {
 	sort.Strings(tags)
 	t.Logf("winning variant: %s", strings.Join(tags, ", "))
 	require.Empty(t, failures, "%d trees above 1.5·LB:\n%s", len(failures), strings.Join(failures, "\n"))
+}
+
+// hubBigTree is a seeded random recursive tree of n nodes (half of them
+// candidates, real lengths, equal speeds) for benchmarks. Invented data.
+func hubBigTree(n int, seed uint64) Scenario {
+	r := newTestRand(seed)
+	sc := Scenario{Name: "bench", Start: "n0", Agents: DefaultAgents()}
+	sc.Nodes = make([]Node, n)
+	sc.Corridors = make([]Corridor, 0, n-1)
+	for i := 0; i < n; i++ {
+		sc.Nodes[i] = Node{ID: fmt.Sprintf("n%d", i), Candidate: i > 0 && r.IntN(2) == 0}
+		if i > 0 {
+			sc.Corridors = append(sc.Corridors, Corridor{From: fmt.Sprintf("n%d", r.IntN(i)), To: sc.Nodes[i].ID, Length: 0.5 + 20*r.Float64()})
+		}
+	}
+	return sc
+}
+
+// BenchmarkHub plans hub-rendezvous (every variant built and evaluated
+// exactly) on a 10^5-node random tree.
+func BenchmarkHub(b *testing.B) {
+	const n = 100_000
+	s, err := NewSite(hubBigTree(n, 77))
+	require.NoError(b, err)
+	ctx := context.Background()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := MakePlan(ctx, s, "hub-rendezvous", FaceToFace, Options{}); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/n, "ns/node")
 }
