@@ -17,14 +17,21 @@ import (
 // uiQueue stands in for fyne.Do in tests: background work queues functions, and waitIdle runs them on
 // the test goroutine, so widgets are only ever touched from one goroutine (checked with -race).
 type uiQueue struct {
-	mu  sync.Mutex
-	fns []func()
+	mu     sync.Mutex
+	fns    []func()
+	signal chan struct{} // receives a token when work is queued (benchmarks wait on it)
 }
+
+func newQueue() *uiQueue { return &uiQueue{signal: make(chan struct{}, 1)} }
 
 func (q *uiQueue) push(f func()) {
 	q.mu.Lock()
 	q.fns = append(q.fns, f)
 	q.mu.Unlock()
+	select {
+	case q.signal <- struct{}{}:
+	default:
+	}
 }
 
 func (q *uiQueue) drain() []func() {
@@ -80,7 +87,7 @@ func newHarnessOn(t testing.TB, fa fyne.App, path, recovery string) *harness {
 		recovery = t.TempDir() + "/recovery.sweep.json"
 	}
 	w := test.NewTempWindow(t, nil)
-	q := &uiQueue{}
+	q := newQueue()
 	h := &harness{t: t, q: q, win: w, clock: &fakeClock{t: time.Unix(1_000_000, 0)}}
 	h.app = newApp(fa, w, path, options{post: q.push, recovery: recovery})
 	h.app.now = h.clock.now

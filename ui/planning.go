@@ -51,14 +51,17 @@ func computePlan(ctx context.Context, sc engine.Scenario, m engine.Model, planne
 }
 
 // computeComparison plans site with the best available planner under both models and evaluates each
-// plan under both.
-func computeComparison(ctx context.Context, site *engine.Site) *comparison {
+// plan under both. have, when not nil, is a best-available plan already made for its model and is reused.
+func computeComparison(ctx context.Context, site *engine.Site, have *engine.Plan) *comparison {
 	c := &comparison{}
 	for i, m := range engine.Models {
-		p, _, err := engine.BestPlan(ctx, site, m)
-		if err != nil {
-			c.err = err
-			return c
+		p := have
+		if p == nil || p.Model != m {
+			var err error
+			if p, _, err = engine.BestPlan(ctx, site, m); err != nil {
+				c.err = err
+				return c
+			}
 		}
 		radio, f2f, err := engine.EvaluateBoth(site, p)
 		if err != nil {
@@ -99,7 +102,11 @@ func (a *App) replan() {
 		if res.site == nil {
 			return // no valid site: nothing to compare
 		}
-		cmp := computeComparison(ctx, res.site)
+		var have *engine.Plan
+		if planner == "" {
+			have = res.plan
+		}
+		cmp := computeComparison(ctx, res.site, have)
 		if ctx.Err() != nil {
 			return
 		}

@@ -4,7 +4,6 @@ import (
 	"math"
 	"testing"
 
-
 	"duosweep/engine"
 	"duosweep/projects"
 )
