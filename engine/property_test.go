@@ -13,6 +13,7 @@ import (
 	"sort"
 	"strings"
 	"testing"
+	"time"
 
 	"duosweep/engine"
 	"duosweep/engine/internal/testtrees"
@@ -211,7 +212,7 @@ func TestProperties(t *testing.T) {
 		if !k.equal {
 			sp = "unequal speeds: max worst/(LB length/slower speed)"
 		}
-		lines = append(lines, fmt.Sprintf("%-16s %-13s %s %.4f over %d trees (at %s)", k.planner, k.model, sp, r.ratio, r.count, r.tree))
+		lines = append(lines, fmt.Sprintf("%-16s %-13s %s %.6f over %d trees (at %s)", k.planner, k.model, sp, r.ratio, r.count, r.tree))
 	}
 	sort.Strings(lines)
 	for _, l := range lines {
@@ -277,6 +278,58 @@ func TestBestPlanIsBest(t *testing.T) {
 					t.Errorf("tree %d, %s: %s has worst %v, better than BestPlan's %s %v", i, m, info.Name, r.Worst, p.Planner, rep.Worst)
 				}
 			}
+		}
+	}
+}
+
+// TestExhaustivePartition: MODEL.md §6 (the PARTITION reduction): a star with
+// short leaves a1..an and one long leaf M > Σai has best worst case exactly
+// W if and only if the ai split into two equal halves. The hand plan of
+// TestPartitionStar reaches W in both models and lies in the exhaustive
+// planner's class (each agent visits a sequence of targets), so an
+// exhaustive search must find W there; without an equal split no plan at
+// all reaches W.
+func TestExhaustivePartition(t *testing.T) {
+	var info engine.PlannerInfo
+	for _, p := range engine.Planners() {
+		if p.Name == "exhaustive" {
+			info = p
+		}
+	}
+	if info.Name == "" {
+		t.Skip("exhaustive planner not registered yet")
+	}
+	cases := []struct {
+		a     []float64
+		M     float64
+		split bool
+	}{
+		{[]float64{3, 1, 1, 2, 1}, 10, true}, // {3,1} / {1,2,1}
+		{[]float64{2, 2}, 5, true},
+		{[]float64{1, 2, 3}, 7, true}, // {1,2} / {3}
+		{[]float64{3, 3, 1}, 8, false},
+		{[]float64{1, 1, 1}, 4, false},
+		{[]float64{5, 1, 1}, 8, false},
+	}
+	for _, c := range cases {
+		s := mustSite(t, testtrees.Partition(c.a, c.M))
+		W := engine.ComputeBounds(s).W
+		for _, m := range info.Models {
+			p, err := engine.MakePlan(context.Background(), s, "exhaustive", m, engine.Options{Budget: 20 * time.Second})
+			if err != nil {
+				t.Fatalf("%v/%v %s: %v", c.a, c.M, m, err)
+			}
+			r, err := engine.Evaluate(s, p, m)
+			if err != nil {
+				t.Fatal(err)
+			}
+			switch {
+			case c.split && !close9(r.Worst, W):
+				t.Errorf("leaves %v, M %v, %s: exhaustive worst %v, want exactly W = %v (equal split exists)", c.a, c.M, m, r.Worst, W)
+			case !c.split && r.Worst <= W*(1+1e-9):
+				t.Errorf("leaves %v, M %v, %s: worst %v ≤ W = %v without an equal split", c.a, c.M, m, r.Worst, W)
+			}
+			t.Logf("leaves %v, M %v, %s: worst %v, W %v (%s)", c.a, c.M, m, r.Worst, W, p.Note)
 		}
 	}
 }
