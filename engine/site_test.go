@@ -179,6 +179,30 @@ func TestSiteStructure(t *testing.T) {
 	if b.W != 3.5 || b.L != 3.5 || b.L2 != 0 || b.LB != 3.5 || b.Far != 0 {
 		t.Errorf("bounds %+v, want W 3.5, L 3.5, L2 0, LB 3.5, Far x", b)
 	}
+	// L is measured to candidates only (MODEL.md §5 says "to a node"; it must
+	// mean a node of the search tree): z is 4 from the start, yet both agents
+	// walking to x together finish at 3.5, so no valid bound exceeds 3.5.
+	toX := engine.Route{Waypoints: []engine.Waypoint{wp(engine.At(0), 3.5)}}
+	r, f := evalBoth(t, s, &engine.Plan{Routes: [2]engine.Route{toX, toX}})
+	if r.Worst != 3.5 || f.Worst != 3.5 || r.Gap != 0 {
+		t.Errorf("walking to x together: worst %v / %v, gap %v; want 3.5, 3.5, 0", r.Worst, f.Worst, r.Gap)
+	}
+}
+
+// TestNoCandidates: a site without candidates is valid; every plan has
+// worst case 0, no worst exit, and is complete.
+func TestNoCandidates(t *testing.T) {
+	sc := small()
+	for i := range sc.Nodes {
+		sc.Nodes[i].Candidate = false
+	}
+	s := mustSite(t, sc)
+	r, f := evalBoth(t, s, &engine.Plan{})
+	for _, rep := range []*engine.Report{r, f} {
+		if rep.Worst != 0 || rep.WorstExit != -1 || !rep.Complete || len(rep.Exits) != 0 || rep.Bounds.LB != 0 {
+			t.Errorf("%s: worst %v at %d, complete %v, %d exits, LB %v", rep.Model, rep.Worst, rep.WorstExit, rep.Complete, len(rep.Exits), rep.Bounds.LB)
+		}
+	}
 }
 
 func equalBools(a, b []bool) bool {
