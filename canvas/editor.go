@@ -73,6 +73,9 @@ type Editor struct {
 	// HistoryLimit caps the undo history (oldest edits are dropped); 0 means 500.
 	HistoryLimit int
 	// MessageDuration is how long the editor shows a message; 0 means 3 s.
+	// A negative value keeps each message until the next one and starts no
+	// timer (useful in tests run with -race, where the hiding timer would
+	// touch the widget from another goroutine).
 	MessageDuration time.Duration
 
 	sc   engine.Scenario
@@ -114,6 +117,8 @@ type derived struct {
 	ends  [][2]int  // corridor end indices, -1 when the id is unknown
 	deg   []int     // corridors per node
 	pair  map[[2]int]int
+	adjAt []int // neighbours of v: adj[adjAt[v]:adjAt[v+1]]
+	adj   []int
 	start int
 	unit  float64 // median drawn corridor length (drawing units)
 }
@@ -256,6 +261,22 @@ func (e *Editor) rebuild() {
 		}
 	}
 	d.unit = geom.MedianLen(edges)
+	d.adjAt = resize(d.adjAt, n+1)
+	d.adjAt[0] = 0
+	for v := 0; v < n; v++ {
+		d.adjAt[v+1] = d.adjAt[v] + d.deg[v]
+	}
+	d.adj = resize(d.adj, d.adjAt[n])
+	fill := make([]int, n)
+	copy(fill, d.adjAt[:n])
+	for _, en := range d.ends {
+		if en[0] >= 0 && en[1] >= 0 {
+			d.adj[fill[en[0]]] = en[1]
+			fill[en[0]]++
+			d.adj[fill[en[1]]] = en[0]
+			fill[en[1]]++
+		}
+	}
 	if s, ok := d.index[e.sc.Start]; ok {
 		d.start = s
 	} else {

@@ -43,7 +43,8 @@ type drag struct {
 	world  geom.Pt // dragged node position (move)
 	start  fyne.Position
 	cur    fyne.Position
-	target int // node under the pointer while connecting, -1 none
+	target int  // node under the pointer while connecting, -1 none
+	loop   bool // connecting to target would close a loop
 	moved  bool
 }
 
@@ -104,8 +105,12 @@ func (e *Editor) message(msg string, at fyne.Position) {
 	e.msg.text, e.msg.at = msg, at
 	gen := e.msg.gen
 	d := e.MessageDuration
-	if d <= 0 {
+	if d == 0 {
 		d = 3 * time.Second
+	}
+	if d < 0 {
+		e.Refresh() // shown until the next message
+		return
 	}
 	e.after(d, func() {
 		if e.msg.gen == gen {
@@ -303,7 +308,15 @@ func (e *Editor) dragTo(cur fyne.Position) {
 		e.drag.world = e.view.ToWorld(toPt(cur)).Add(e.drag.grab)
 		e.Refresh()
 	case dragConnect:
-		e.drag.target = e.nodeAt(cur, e.drag.node)
+		t := e.nodeAt(cur, e.drag.node)
+		if t != e.drag.target {
+			e.drag.target = t
+			e.drag.loop = t >= 0 && e.connected(e.drag.node, t, -1)
+			e.hover = Selection{Kind: SelNone, Index: -1}
+			if t >= 0 {
+				e.hover = Selection{Kind: SelNode, Index: t}
+			}
+		}
 		e.Refresh()
 	case dragPan:
 		e.PanBy(fyne.NewDelta(cur.X-prev.X, cur.Y-prev.Y))

@@ -65,6 +65,9 @@ type editorRenderer struct {
 	fg, bgc, primary, errc, muted color.Color
 	textSize                      float32
 	pts                           []geom.Pt
+	dirs                          []geom.Pt // scratch: corridor directions of one node
+	cands                         []geom.Pt // scratch: label candidates of one node
+	placer                        geom.Placer
 	unvisited                     []int // valid unvisited nodes
 }
 
@@ -343,11 +346,10 @@ func (r *editorRenderer) Refresh() {
 			l.Hidden = true
 		}
 	}
-	r.rubber.StrokeColor = r.primary
 	r.msgBg.FillColor = theme.ColorForWidget(theme.ColorNameOverlayBackground, e)
 	r.msgBg.StrokeColor = r.muted
 	setText(r.msgT, e.msg.text, fg, ts, true)
-	r.helpBg.FillColor = withAlpha(theme.ColorForWidget(theme.ColorNameOverlayBackground, e), 0xf0)
+	r.helpBg.FillColor = theme.ColorForWidget(theme.ColorNameOverlayBackground, e)
 	r.helpBg.StrokeColor = r.muted
 	for i := range r.helpK {
 		setText(r.helpK[i], r.helpK[i].Text, fg, ts, true)
@@ -409,20 +411,36 @@ func (r *editorRenderer) Layout(size fyne.Size) {
 	vis := screen.Grow(cullMargin)
 	showLabels := e.d.unit*e.view.Zoom >= labelMinZoom || n <= 12
 	start := e.d.start
+	// nodes, then labels placed greedily where they overlap no node and no
+	// earlier label (important ones first); labels that find no room hide.
+	r.placer.Reset(64)
 	for i, p := range pts {
-		c, t := r.nodes[i], r.nodeLbl[i]
+		c := r.nodes[i]
 		on := vis.Contains(p)
 		c.Hidden = !on || i == start
 		if on {
 			place(c, p, nodeR)
+			r.placer.Add(geom.Rect{Min: p.Sub(geom.Pt{X: nodeR, Y: nodeR}), Max: p.Add(geom.Pt{X: nodeR, Y: nodeR})})
 		}
-		t.Hidden = !on || !(showLabels || i == start || e.sel == Selection{SelNode, i} || e.hover == Selection{SelNode, i})
-		if !t.Hidden {
-			dx := float64(nodeR + 4)
-			if i == start || i == ov.Worst || i == ov.Focus {
-				dx = 21 // clear of the square, ring or target marker
+		r.nodeLbl[i].Hidden = true
+	}
+	forced := [...]int{-1, -1, start, ov.Worst, ov.Focus}
+	if e.sel.Kind == SelNode {
+		forced[0] = e.sel.Index
+	}
+	if e.hover.Kind == SelNode {
+		forced[1] = e.hover.Index
+	}
+	for _, i := range forced {
+		if i >= 0 && i < n && r.nodeLbl[i].Hidden {
+			r.placeNodeLabel(i, pts, vis, true)
+		}
+	}
+	if showLabels {
+		for i := range pts {
+			if r.nodeLbl[i].Hidden {
+				r.placeNodeLabel(i, pts, vis, false)
 			}
-			moveText(t, p.X+dx, p.Y-float64(t.Size().Height)-1)
 		}
 	}
 	for i, en := range e.d.ends {
@@ -438,15 +456,28 @@ func (r *editorRenderer) Layout(size fyne.Size) {
 		}
 		mid := geom.Lerp(a, b, 0.5)
 		length := geom.Dist(a, b)
-		t.Hidden = l.Hidden || length < lengthMinPx || !screen.Contains(mid)
-		if !t.Hidden {
-			// beside the line, on the side of its normal that points up
-			nx, ny := -(b.Y-a.Y)/length, (b.X-a.X)/length
-			if ny > 0 {
-				nx, ny = -nx, -ny
+		t.Hidden = true
+		if l.Hidden || length < lengthMinPx || !screen.Contains(mid) {
+			continue
+		}
+		// beside the line, on the side of its normal that points up, else the other side
+		nx, ny := -(b.Y-a.Y)/length, (b.X-a.X)/length
+		if ny > 0 {
+			nx, ny = -nx, -ny
+		}
+		sz := t.Size()
+		w, h := float64(sz.Width), float64(sz.Height)
+		for _, side := range [2]float64{1, -1} {
+			// the box corner nearest the line sits 3 units from it
+			cx := mid.X + side*nx*(3+w/2*math.Abs(nx)+h/2*math.Abs(ny))
+			cy := mid.Y + side*ny*(3+w/2*math.Abs(nx)+h/2*math.Abs(ny))
+			box := geom.Rect{Min: geom.Pt{X: cx - w/2, Y: cy - h/2}, Max: geom.Pt{X: cx + w/2, Y: cy + h/2}}
+			if r.placer.Free(box) && r.inside(box) {
+				r.placer.Add(box)
+				t.Hidden = false
+				moveText(t, box.Min.X, box.Min.Y)
+				break
 			}
-			sz := t.Size()
-			moveText(t, mid.X+nx*10-float64(sz.Width)/2, mid.Y+ny*10-float64(sz.Height)/2)
 		}
 	}
 	// start square and tag
@@ -472,7 +503,7 @@ func (r *editorRenderer) Layout(size fyne.Size) {
 	if w := ov.Worst; w >= 0 && w < n {
 		r.worst.Hidden, wt.Hidden = false, false
 		place(r.worst, pts[w], 15)
-		moveText(wt, pts[w].X+17, pts[w].Y+4)
+		moveText(wt, pts[w].X-float64(wt.Size().Width)/2, pts[w].Y+17)
 	}
 	// replayed exit: ring and cross-hair ticks
 	r.focus.Hidden = true
@@ -539,6 +570,10 @@ func (r *editorRenderer) Layout(size fyne.Size) {
 	// rubber band while connecting
 	r.rubber.Hidden = e.drag.kind != dragConnect
 	if !r.rubber.Hidden {
+		r.rubber.StrokeColor, r.rubber.StrokeWidth = r.primary, 2
+		if e.drag.loop {
+			r.rubber.StrokeColor, r.rubber.StrokeWidth = r.errc, 3 // this drop will be refused
+		}
 		a := pts[e.drag.node]
 		b := toPt(e.drag.cur)
 		if t := e.drag.target; t >= 0 {
@@ -562,6 +597,49 @@ func (r *editorRenderer) Layout(size fyne.Size) {
 		r.msgBg.Resize(fyne.NewSize(sz.Width+12, sz.Height+6))
 	}
 	r.layoutHelp()
+}
+
+// placeNodeLabel puts node i's label in the best free spot beside it (a
+// forced label takes the best spot even if it overlaps), or leaves it hidden.
+func (r *editorRenderer) placeNodeLabel(i int, pts []geom.Pt, vis geom.Rect, force bool) {
+	e, ov := r.e, &r.e.overlay
+	p := pts[i]
+	if !vis.Contains(p) {
+		return
+	}
+	t := r.nodeLbl[i]
+	gap := float64(nodeR + 4)
+	dirs := r.dirs[:0]
+	for _, w := range e.d.adj[e.d.adjAt[i]:e.d.adjAt[i+1]] {
+		dirs = append(dirs, pts[w].Sub(p))
+	}
+	if i == e.d.start || i == ov.Worst || i == ov.Focus {
+		gap = 21                                   // clear of the square, ring or target marker
+		dirs = append(dirs, geom.Pt{X: 0.3, Y: 1}) // keep the tag below free
+	}
+	r.dirs = dirs
+	sz := t.Size()
+	w, h := float64(sz.Width), float64(sz.Height)
+	r.cands = geom.LabelCandidates(dirs, w, h, gap, r.cands[:0])
+	for k, o := range r.cands {
+		box := geom.Rect{Min: p.Add(o), Max: p.Add(o).Add(geom.Pt{X: w, Y: h})}
+		if (r.placer.Free(box) && r.inside(box)) || (force && k == len(r.cands)-1) {
+			if !r.placer.Free(box) {
+				o = r.cands[0]
+				box = geom.Rect{Min: p.Add(o), Max: p.Add(o).Add(geom.Pt{X: w, Y: h})}
+			}
+			r.placer.Add(box)
+			t.Hidden = false
+			moveText(t, box.Min.X, box.Min.Y)
+			return
+		}
+	}
+}
+
+// inside reports whether box lies within the widget.
+func (r *editorRenderer) inside(box geom.Rect) bool {
+	s := r.e.Size()
+	return box.Min.X >= 0 && box.Min.Y >= 0 && box.Max.X <= float64(s.Width) && box.Max.Y <= float64(s.Height)
 }
 
 // validPoint reports whether p names a node, or a corridor, of the current scenario.

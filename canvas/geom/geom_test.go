@@ -265,3 +265,61 @@ func TestTidyReflectsLengths(t *testing.T) {
 		t.Fatalf("clamped rows %v", p)
 	}
 }
+
+func TestLabelOffset(t *testing.T) {
+	const w, h, g = 40, 10, 10
+	d := g / math.Sqrt2
+	for _, tc := range []struct {
+		name string
+		dirs []Pt
+		want Pt
+	}{
+		{"isolated node: right-above", nil, Pt{d, -d - h}},
+		{"corridor to the right-above: label left-below", []Pt{{1, -1}}, Pt{-d - w, d}},
+		{"vertical path: right", []Pt{{0, -5}, {0, 5}}, Pt{g, -h / 2}},
+		{"horizontal path: above", []Pt{{-3, 0}, {3, 0}}, Pt{-w / 2, -g - h}},
+		{"fork below (tree drawn downwards): above", []Pt{{0, -1}, {-1, 1}, {1, 1}}, Pt{d, -d - h}},
+		{"zero vectors ignored", []Pt{{0, 0}}, Pt{d, -d - h}},
+	} {
+		got := LabelOffset(tc.dirs, w, h, g)
+		if Dist(got, tc.want) > 1e-9 {
+			t.Errorf("%s: LabelOffset = %v, want %v", tc.name, got, tc.want)
+		}
+	}
+}
+
+func TestLabelCandidatesAndPlacer(t *testing.T) {
+	dirs := []Pt{{0, -1}, {0, 1}}
+	c := LabelCandidates(dirs, 40, 10, 10, nil)
+	if len(c) != 8 || c[0] != LabelOffset(dirs, 40, 10, 10) {
+		t.Fatalf("candidates %v", c)
+	}
+	// the two candidates beside a vertical path (right, then left) come first
+	if c[0] != (Pt{10, -5}) || c[1] != (Pt{-50, -5}) {
+		t.Fatalf("order %v", c[:2])
+	}
+	var p Placer
+	p.Reset(16)
+	a := Rect{Pt{0, 0}, Pt{40, 10}}
+	if !p.Free(a) {
+		t.Fatal("empty placer")
+	}
+	p.Add(a)
+	for _, tc := range []struct {
+		r    Rect
+		free bool
+	}{
+		{Rect{Pt{39, 9}, Pt{60, 20}}, false}, // corner overlap
+		{Rect{Pt{40, 0}, Pt{60, 10}}, true},  // touching edge only
+		{Rect{Pt{-100, -100}, Pt{-90, -90}}, true},
+		{Rect{Pt{10, -5}, Pt{20, 50}}, false}, // crosses
+	} {
+		if got := p.Free(tc.r); got != tc.free {
+			t.Errorf("Free(%v) = %v", tc.r, got)
+		}
+	}
+	p.Reset(16)
+	if !p.Free(a) {
+		t.Fatal("Reset did not empty")
+	}
+}
