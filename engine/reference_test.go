@@ -13,6 +13,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"strings"
 	"testing"
 	"time"
 
@@ -520,6 +521,43 @@ func compareReports(t *testing.T, label string, rt *refTree, got *engine.Report,
 	return ok
 }
 
+// reproducer prints a scenario and a plan compactly enough to paste into a test.
+func reproducer(sc engine.Scenario, p *engine.Plan) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "start %s, speeds", sc.Start)
+	for _, a := range sc.Agents {
+		fmt.Fprintf(&b, " %v", a.Speed)
+	}
+	b.WriteString("\n  corridors:")
+	for _, c := range sc.Corridors {
+		fmt.Fprintf(&b, " %s-%s:%v", c.From, c.To, c.Length)
+	}
+	b.WriteString("\n  candidates:")
+	for i, nd := range sc.Nodes {
+		if nd.Candidate {
+			fmt.Fprintf(&b, " %d=%s", i, nd.ID)
+			if nd.HasProbability {
+				fmt.Fprintf(&b, "(p=%v)", nd.Probability)
+			}
+		}
+	}
+	for a, r := range p.Routes {
+		fmt.Fprintf(&b, "\n  route %d:", a)
+		for _, w := range r.Waypoints {
+			if w.P.To < 0 {
+				fmt.Fprintf(&b, " [%s t=%v", sc.Nodes[w.P.From].ID, w.T)
+			} else {
+				fmt.Fprintf(&b, " [%s->%s+%v t=%v", sc.Nodes[w.P.From].ID, sc.Nodes[w.P.To].ID, w.P.Offset, w.T)
+			}
+			if w.Rendezvous {
+				b.WriteString(" rv")
+			}
+			b.WriteString("]")
+		}
+	}
+	return b.String()
+}
+
 // ---- random hand-made plans ----
 
 // randomPlan draws a valid plan with node and corridor-interior waypoints,
@@ -661,7 +699,7 @@ func TestReferenceMatchesEngine(t *testing.T) {
 				checks++
 				if !compareReports(t, fmt.Sprintf("tree %d (%d nodes), %s plan (for %s) under %s", i, s.N, pp.name, pp.model, m), rt, got, want) {
 					failures++
-					t.Logf("reproducer: scenario %+v\nplan %+v", sc, pp.plan.Routes)
+					t.Logf("reproducer: %s", reproducer(sc, pp.plan))
 				}
 			}
 		}
