@@ -41,6 +41,7 @@ type compareRow struct {
 	model   engine.Model
 	r       *engine.Report // nil: not applicable
 	note    string         // shown instead of figures when r is nil
+	detail  string         // a footnote below the table (why it failed)
 }
 
 func runCompare(e *env, args []string) error {
@@ -85,12 +86,12 @@ func compareRows(e *env, s *engine.Site, b time.Duration, seed int64) ([]compare
 				if errors.Is(err, e.ctx.Err()) && e.ctx.Err() != nil {
 					return nil, failure{err}
 				}
-				rows = append(rows, compareRow{planner: info.Name, model: m, note: "failed: " + oneLine(err.Error())})
+				rows = append(rows, compareRow{planner: info.Name, model: m, note: "failed", detail: oneLine(err.Error())})
 				continue
 			}
 			r, err := engine.Evaluate(s, p, m)
 			if err != nil {
-				rows = append(rows, compareRow{planner: info.Name, model: m, note: "invalid plan: " + oneLine(err.Error())})
+				rows = append(rows, compareRow{planner: info.Name, model: m, note: "invalid plan", detail: oneLine(err.Error())})
 				continue
 			}
 			rows = append(rows, compareRow{planner: info.Name, model: m, r: r})
@@ -122,9 +123,15 @@ func writeCompare(e *env, s *engine.Site, rows []compareRow) {
 	fmt.Fprintf(w, "%s\nlower bound %s (%.1f s); %d candidates\n\n", s.Scenario.Name, projects.FormatDuration(bd.LB), bd.LB, len(s.Candidates()))
 	tw := tabwriter.NewWriter(w, 0, 4, 2, ' ', 0)
 	fmt.Fprintln(tw, "planner\tmodel\tworst\tworst s\tworst exit\tgap %\texpected\tcomplete")
+	var notes []string
 	for _, row := range rows {
 		if row.r == nil {
-			fmt.Fprintf(tw, "%s\t%s\t%s\t\t\t\t\t\n", row.planner, row.model, row.note)
+			note := row.note
+			if row.detail != "" {
+				notes = append(notes, fmt.Sprintf("[%d] %s, %s: %s", len(notes)+1, row.planner, row.model, row.detail))
+				note += fmt.Sprintf(" [%d]", len(notes))
+			}
+			fmt.Fprintf(tw, "%s\t%s\t%s\t\t\t\t\t\n", row.planner, row.model, note)
 			continue
 		}
 		r := row.r
@@ -148,4 +155,10 @@ func writeCompare(e *env, s *engine.Site, rows []compareRow) {
 		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\n", row.planner, row.model, projects.FormatDuration(r.Worst), worstS, exit, gap, exp, complete)
 	}
 	tw.Flush()
+	if len(notes) > 0 {
+		fmt.Fprintln(w)
+		for _, n := range notes {
+			fmt.Fprintln(w, n)
+		}
+	}
 }
