@@ -126,7 +126,7 @@ func newApp(a fyne.App, w fyne.Window, path string, opt options) *App {
 	}
 	app.updateTitle()
 	app.refreshInspector()
-	app.replan()
+	app.planAtStart()
 	if loadErr != nil {
 		app.showError("Could not open the file; the demo site is open instead", loadErr)
 	} else {

@@ -6,7 +6,6 @@ import (
 
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/container"
-	"fyne.io/fyne/v2/layout"
 	"fyne.io/fyne/v2/widget"
 
 	"duosweep/engine"
@@ -31,10 +30,11 @@ func (a *App) comparePanel() fyne.CanvasObject {
 	head := func(s string) fyne.CanvasObject {
 		return widget.NewLabelWithStyle(s, fyne.TextAlignLeading, fyne.TextStyle{Bold: true})
 	}
-	grid := container.New(layout.NewGridLayoutWithColumns(3),
-		widget.NewLabel(""), head("with radio"), head("face to face"),
-		head("plan for radio"), w.cmpCells[0][0], w.cmpCells[0][1],
-		head("plan for face to face"), w.cmpCells[1][0], w.cmpCells[1][1],
+	row := func(objs ...fyne.CanvasObject) fyne.CanvasObject { return container.NewGridWithColumns(3, objs...) }
+	grid := container.NewVBox(
+		row(widget.NewLabel(""), head("walked with radio"), head("walked face to face")),
+		row(head("plan for radio"), w.cmpCells[0][0], w.cmpCells[0][1]),
+		row(head("plan for face to face"), w.cmpCells[1][0], w.cmpCells[1][1]),
 	)
 	w.cmpCost = widget.NewLabel("")
 	w.cmpCost.Wrapping = fyne.TextWrapWord
@@ -94,7 +94,7 @@ func (a *App) refreshComparison() {
 			if i == j {
 				text += "\n" + c.plans[i].Planner
 			} else if d, ok := costText(c.cell[j][j].Worst, r.Worst); ok {
-				text += "\n" + d + " vs its own best"
+				text += "\n" + d + " vs the " + engine.Models[j].String() + " plan"
 			}
 			w.cmpCells[i][j].SetText(text)
 		}
@@ -108,7 +108,7 @@ func (a *App) refreshComparison() {
 	}
 	if d, ok := costText(radio, c.cell[0][1].Worst); ok {
 		w.cmpCross.SetText("Walking the radio plan without radio: " + d + " over the radio figure. " +
-			"The same plan is never worse with radio (MODEL.md §4).")
+			"A plan is never slower with radio than without.")
 	} else {
 		w.cmpCross.SetText("")
 	}

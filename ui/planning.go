@@ -74,9 +74,18 @@ func computeComparison(ctx context.Context, site *engine.Site, have *engine.Plan
 	return c
 }
 
+// syncPlanLimit is the largest site New plans on the UI goroutine, so that the first frame already shows
+// the plan (planning such a site takes milliseconds); larger sites are planned in the background.
+const syncPlanLimit = 300
+
 // replan starts planning the current scenario in the background, cancelling the previous run. The
 // result is published on the UI goroutine if no newer run has started meanwhile.
-func (a *App) replan() {
+func (a *App) replan() { a.startPlan(false) }
+
+// planAtStart plans a small scenario at once (then compares in the background), a large one like replan.
+func (a *App) planAtStart() { a.startPlan(len(a.editor.Scenario().Nodes) <= syncPlanLimit) }
+
+func (a *App) startPlan(now bool) {
 	if a.cancel != nil {
 		a.cancel()
 	}
@@ -86,19 +95,27 @@ func (a *App) replan() {
 	gen := a.gen
 	sc := a.editor.Scenario().Clone()
 	m, planner := a.model, a.planner
-	a.setBusy(true)
+	var res planResult
+	if now {
+		res = computePlan(ctx, sc, m, planner)
+		a.publish(gen, res)
+	} else {
+		a.setBusy(true)
+	}
 	a.jobs.Add(1)
 	go func() {
 		defer a.jobs.Done()
-		res := computePlan(ctx, sc, m, planner)
-		if ctx.Err() != nil {
-			return // a newer run owns the screen
-		}
-		a.post(func() {
-			if gen == a.gen {
-				a.publish(gen, res)
+		if !now {
+			res = computePlan(ctx, sc, m, planner)
+			if ctx.Err() != nil {
+				return // a newer run owns the screen
 			}
-		})
+			a.post(func() {
+				if gen == a.gen {
+					a.publish(gen, res)
+				}
+			})
+		}
 		if res.site == nil {
 			return // no valid site: nothing to compare
 		}
