@@ -14,6 +14,7 @@ import (
 	"math/rand/v2"
 	"strconv"
 	"testing"
+	"time"
 
 	"duosweep/engine"
 	"duosweep/projects"
@@ -72,6 +73,31 @@ func perNode(b *testing.B, n int) {
 
 func sizeName(n int) string { return fmt.Sprintf("n=%d", n) }
 
+// slowAt remembers, per benchmark family, the size and time per operation of
+// the last size measured; a family whose operation took more than
+// slowLimit is not run at the next (10× larger) size, and says so. This
+// keeps a full -bench run bounded on a shared 2-core machine when a planner
+// scales worse than linearly.
+var slowAt = map[string]struct {
+	n  int
+	ns float64
+}{}
+
+const slowLimit = 20e9 // ns per operation
+
+func skipIfSlow(b *testing.B, family string, n int) {
+	if last, ok := slowAt[family]; ok && last.n < n && last.ns > slowLimit {
+		b.Skipf("%s took %.1f s per operation at n=%d (more than %.0f s): not run at n=%d", family, last.ns/1e9, last.n, slowLimit/1e9, n)
+	}
+}
+
+func noteTime(b *testing.B, family string, n int) {
+	slowAt[family] = struct {
+		n  int
+		ns float64
+	}{n, float64(b.Elapsed().Nanoseconds()) / float64(b.N)}
+}
+
 func BenchmarkNewSite(b *testing.B) {
 	for _, n := range benchSizes {
 		b.Run(sizeName(n), func(b *testing.B) {
@@ -119,7 +145,9 @@ func BenchmarkPlanner(b *testing.B) {
 		}
 		for _, m := range info.Models {
 			for _, n := range benchSizes {
+				family := "planner " + info.Name + "/" + m.String()
 				b.Run(info.Name+"/"+m.String()+"/"+sizeName(n), func(b *testing.B) {
+					skipIfSlow(b, family, n)
 					sc := benchTree(n)
 					b.ResetTimer()
 					for i := 0; i < b.N; i++ {
@@ -134,6 +162,7 @@ func BenchmarkPlanner(b *testing.B) {
 						}
 					}
 					perNode(b, n)
+					noteTime(b, family, n)
 				})
 			}
 		}
@@ -145,11 +174,17 @@ func BenchmarkEvaluate(b *testing.B) {
 	for _, m := range engine.Models {
 		for _, n := range benchSizes {
 			b.Run(m.String()+"/"+sizeName(n), func(b *testing.B) {
+				skipIfSlow(b, "BestPlan "+m.String(), n)
 				s := benchSite(b, n)
+				t0 := time.Now()
 				p, _, err := engine.BestPlan(context.Background(), s, m)
 				if err != nil {
 					b.Fatal(err)
 				}
+				slowAt["BestPlan "+m.String()] = struct {
+					n  int
+					ns float64
+				}{n, float64(time.Since(t0).Nanoseconds())}
 				b.ResetTimer()
 				for b.Loop() {
 					if _, err := engine.Evaluate(s, p, m); err != nil {
@@ -168,6 +203,7 @@ func BenchmarkEvaluate(b *testing.B) {
 func BenchmarkPlanAndEvaluateBoth(b *testing.B) {
 	for _, n := range benchSizes {
 		b.Run(sizeName(n), func(b *testing.B) {
+			skipIfSlow(b, "plan+evaluate", n)
 			sc := benchTree(n)
 			b.ResetTimer()
 			for i := 0; i < b.N; i++ {
@@ -184,6 +220,7 @@ func BenchmarkPlanAndEvaluateBoth(b *testing.B) {
 				}
 			}
 			perNode(b, n)
+			noteTime(b, "plan+evaluate", n)
 		})
 	}
 }
