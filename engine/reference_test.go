@@ -13,6 +13,8 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"os"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -622,8 +624,12 @@ func randomPlan(rng *rand.Rand, rt *refTree) *engine.Plan {
 
 // ---- the seeded trees shared by the reference and property tests ----
 
-// treeCount is the number of seeded random trees (2,000; 300 with -short).
+// treeCount is the number of seeded random trees (2,000; 300 with -short;
+// DUOSWEEP_TREES=n for longer soak runs).
 func treeCount() int {
+	if v, err := strconv.Atoi(os.Getenv("DUOSWEEP_TREES")); err == nil && v > 0 {
+		return v
+	}
 	if testing.Short() {
 		return 300
 	}
