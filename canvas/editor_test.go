@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"fyne.io/fyne/v2"
+	"fyne.io/fyne/v2/test"
 
 	"duosweep/canvas/geom"
 	"duosweep/engine"
@@ -518,5 +519,69 @@ func TestTidyIsUndoable(t *testing.T) {
 	e.Undo()
 	if e.Scenario().Nodes[3] != before.Nodes[3] {
 		t.Fatal("undo tidy")
+	}
+}
+
+func TestLabelsHideWhenZoomedOut(t *testing.T) {
+	e, _, _ := newTestEditor(t, randomScenario(60, 5, true))
+	visible := func() (nodes, corridors int) {
+		for i := range e.Scenario().Nodes {
+			if !e.r.nodeLbl[i].Hidden {
+				nodes++
+			}
+		}
+		for i := range e.Scenario().Corridors {
+			if !e.r.corrLbl[i].Hidden {
+				corridors++
+			}
+		}
+		return
+	}
+	e.ZoomBy(0.05, e.centre())
+	if n, c := visible(); n != 1 || c != 0 || e.r.nodeLbl[0].Hidden {
+		t.Fatalf("zoomed out: %d node and %d corridor labels shown, want only the start's", n, c)
+	}
+	e.Select(Selection{SelNode, 7})
+	if n, _ := visible(); n != 2 || e.r.nodeLbl[7].Hidden {
+		t.Fatal("the selected junction's label must stay visible")
+	}
+	e.FitView()
+	e.ZoomBy(4, e.NodeXY(7))
+	n, c := visible()
+	if n == 0 || c == 0 {
+		t.Fatalf("zoomed in: %d node and %d corridor labels", n, c)
+	}
+	// shown labels never overlap each other
+	var boxes []geom.Rect
+	for i := range e.Scenario().Nodes {
+		if t := e.r.nodeLbl[i]; !t.Hidden {
+			boxes = append(boxes, geom.Rect{Min: toPt(t.Position()), Max: toPt(t.Position().Add(t.Size()))})
+		}
+	}
+	for i := range e.Scenario().Corridors {
+		if t := e.r.corrLbl[i]; !t.Hidden {
+			boxes = append(boxes, geom.Rect{Min: toPt(t.Position()), Max: toPt(t.Position().Add(t.Size()))})
+		}
+	}
+	for i := range boxes {
+		for j := i + 1; j < len(boxes); j++ {
+			if boxes[i].Overlaps(boxes[j]) {
+				t.Fatalf("labels overlap: %v and %v", boxes[i], boxes[j])
+			}
+		}
+	}
+}
+
+func TestContextMenu(t *testing.T) {
+	e, w, _ := newTestEditor(t, small())
+	e.TappedSecondary(&fyne.PointEvent{Position: e.NodeXY(3), AbsolutePosition: e.NodeXY(3)})
+	if e.Selection() != (Selection{SelNode, 3}) || w.Canvas().Overlays().Top() == nil {
+		t.Fatal("right-click on a junction must select it and open a menu")
+	}
+	m := test.RenderToMarkup(w.Canvas())
+	for _, s := range []string{"Make start", "Toggle exit candidate", "Delete junction"} {
+		if !strings.Contains(m, s) {
+			t.Fatalf("menu lacks %q", s)
+		}
 	}
 }
