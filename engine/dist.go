@@ -6,19 +6,23 @@ import (
 )
 
 // hld is a heavy-light decomposition of the rooted tree: O(n) to build,
-// O(log n) per lowest-common-ancestor query, 2 int32 per node.
+// O(log n) per lowest-common-ancestor query. Each node's record packs what a
+// query step needs, so a step touches one cache line.
 type hld struct {
-	head  []int32
-	heavy []int32
+	rec []hldRec
+}
+
+type hldRec struct {
+	head      int32 // top node of the node's heavy chain
+	headUp    int32 // parent of head, -1 at the root chain
+	headLevel int32 // level of head
+	level     int32
+	depth     float64
 }
 
 func newHLD(s *Site) hld {
 	n := s.N
 	size := make([]int32, n)
-	heavy := make([]int32, n)
-	for i := range heavy {
-		heavy[i] = -1
-	}
 	for i := n - 1; i >= 0; i-- {
 		v := s.Order[i]
 		size[v]++
@@ -26,6 +30,7 @@ func newHLD(s *Site) hld {
 			size[p] += size[v]
 		}
 	}
+	heavy := make([]int32, n)
 	for v := 0; v < n; v++ {
 		best := int32(-1)
 		for _, c := range s.Children(v) {
@@ -35,28 +40,33 @@ func newHLD(s *Site) hld {
 		}
 		heavy[v] = best
 	}
-	head := make([]int32, n)
+	rec := make([]hldRec, n)
 	for _, v := range s.Order {
 		p := s.Parent[v]
+		r := &rec[v]
+		r.level, r.depth = s.Level[v], s.Depth[v]
 		if p >= 0 && heavy[p] == v {
-			head[v] = head[p]
+			r.head, r.headUp, r.headLevel = rec[p].head, rec[p].headUp, rec[p].headLevel
 		} else {
-			head[v] = v
+			r.head, r.headUp, r.headLevel = v, p, s.Level[v]
 		}
 	}
-	return hld{head: head, heavy: heavy}
+	return hld{rec: rec}
 }
 
 // LCA returns the lowest common ancestor of nodes u and v (rooted at the start). O(log n).
 func (s *Site) LCA(u, v int) int {
-	h := s.hld.head
-	for h[u] != h[v] {
-		if s.Level[h[u]] < s.Level[h[v]] {
+	rec := s.hld.rec
+	ru, rv := &rec[u], &rec[v]
+	for ru.head != rv.head {
+		if ru.headLevel < rv.headLevel {
+			ru, rv = rv, ru
 			u, v = v, u
 		}
-		u = int(s.Parent[h[u]])
+		u = int(ru.headUp)
+		ru = &rec[u]
 	}
-	if s.Level[u] < s.Level[v] {
+	if ru.level < rv.level {
 		return u
 	}
 	return v
@@ -67,8 +77,15 @@ func (s *Site) Dist(u, v int) float64 {
 	if u == v {
 		return 0
 	}
-	a := s.LCA(u, v)
-	return s.Depth[u] + s.Depth[v] - 2*s.Depth[a]
+	if int(s.Parent[u]) == v {
+		return s.EW[s.ParentEdge[u]]
+	}
+	if int(s.Parent[v]) == u {
+		return s.EW[s.ParentEdge[v]]
+	}
+	rec := s.hld.rec
+	du, dv := rec[u].depth, rec[v].depth
+	return du + dv - 2*rec[s.LCA(u, v)].depth
 }
 
 // Point is a place on the site: node From when To < 0, else the point at
@@ -137,6 +154,9 @@ func (s *Site) ends(p Point) (u int, du float64, v int, dv float64) {
 
 // PointDist returns the length of the shortest path between two points. O(log n).
 func (s *Site) PointDist(a, b Point) float64 {
+	if a.To < 0 && b.To < 0 {
+		return s.Dist(a.From, b.From)
+	}
 	if a.To >= 0 && b.To >= 0 {
 		if a.From == b.From && a.To == b.To {
 			return math.Abs(a.Offset - b.Offset)
@@ -163,6 +183,9 @@ func (s *Site) PointDist(a, b Point) float64 {
 
 // NodeDist returns the distance from point a to node v. O(log n).
 func (s *Site) NodeDist(a Point, v int) float64 {
+	if a.To < 0 {
+		return s.Dist(a.From, v)
+	}
 	au, adu, av, adv := s.ends(a)
 	d := adu + s.Dist(au, v)
 	if av != au {

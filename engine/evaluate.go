@@ -227,6 +227,9 @@ func intercept(s *Site, tr *Trajectory, x int, t, sf, sp float64) (float64, Poin
 		// the first segment whose end is feasible.
 		h := func(i int) float64 {
 			g := &segs[i]
+			if g.N1 >= 0 {
+				return sf*(g.T1-t) - s.Dist(int(g.N1), x)
+			}
 			return sf*(g.T1-t) - s.NodeDist(s.segPoint(g, g.T1), x)
 		}
 		j := i0 + sort.Search(len(segs)-i0, func(k int) bool { return h(i0+k) >= -1e-9*math.Max(1, segs[i0+k].T1) })

@@ -29,6 +29,7 @@ type Plan struct {
 	Model   Model  // the model it was made for
 	Routes  [2]Route
 	Note    string // what the planner chose, in a sentence
+	cached  *Report // the planner's own evaluation under Model, if any
 }
 
 // Seg is one elementary piece of a trajectory: over [T0, T1] the agent moves
@@ -39,6 +40,8 @@ type Seg struct {
 	E      int32
 	Node   int32
 	O0, O1 float64
+	// N0 and N1 are the nodes where the segment starts and ends, -1 inside a corridor.
+	N0, N1 int32
 }
 
 // Trajectory is a route expanded into elementary segments. Build it with
@@ -57,6 +60,7 @@ type Trajectory struct {
 	RVWp   []int     // waypoint index of each rendezvous
 	WpTime []float64 // when the agent leaves each waypoint (its time, or its arrival if later within tolerance)
 	start  Point
+	down   []int32 // scratch for walkNodes
 }
 
 // timeTol is the relative tolerance used for "waypoint time reachable" and for ties.
@@ -80,12 +84,15 @@ func (s *Site) Trajectory(r Route, a int) (*Trajectory, error) {
 			return nil, fmt.Errorf("engine: route of %s, waypoint %d: time %g is not finite", s.Names[a], i, wp.T)
 		}
 		p := s.Canon(wp.P)
-		d := s.PointDist(cur, p)
+		mark := len(tr.Segs)
+		d := tr.walk(cur, p, t, speed)
 		arrive := t + d/speed
 		if wp.T < arrive-tol(arrive) {
 			return nil, fmt.Errorf("engine: route of %s, waypoint %d: t=%g but the earliest arrival at full speed is t=%g", s.Names[a], i, wp.T, arrive)
 		}
-		tr.walk(cur, p, t, speed)
+		if n := len(tr.Segs); n > mark {
+			tr.Segs[n-1].T1 = arrive // the sum of the pieces, exactly as the check used
+		}
 		tr.Length += d
 		tEnd := math.Max(wp.T, arrive)
 		if tEnd > arrive {
@@ -105,14 +112,14 @@ func (s *Site) Trajectory(r Route, a int) (*Trajectory, error) {
 }
 
 func (tr *Trajectory) addWait(p Point, t0, t1 float64) {
-	sg := Seg{T0: t0, T1: t1, E: -1, Node: int32(p.From)}
+	sg := Seg{T0: t0, T1: t1, E: -1, Node: int32(p.From), N0: int32(p.From), N1: int32(p.From)}
 	if p.To >= 0 {
 		e := tr.site.Edge(p.From, p.To)
 		o := p.Offset
 		if int(tr.site.EU[e]) != p.From {
 			o = tr.site.EW[e] - o
 		}
-		sg = Seg{T0: t0, T1: t1, E: int32(e), Node: -1, O0: o, O1: o}
+		sg = Seg{T0: t0, T1: t1, E: int32(e), Node: -1, O0: o, O1: o, N0: -1, N1: -1}
 	}
 	tr.Segs = append(tr.Segs, sg)
 }
@@ -123,7 +130,8 @@ func (tr *Trajectory) move(e int, o0, o1, t, speed float64) float64 {
 		return t
 	}
 	t1 := t + math.Abs(o1-o0)/speed
-	tr.Segs = append(tr.Segs, Seg{T0: t, T1: t1, E: int32(e), Node: -1, O0: o0, O1: o1})
+	tr.Segs = append(tr.Segs, Seg{T0: t, T1: t1, E: int32(e), Node: -1, O0: o0, O1: o1,
+		N0: tr.site.nodeAtOffset(e, o0), N1: tr.site.nodeAtOffset(e, o1)})
 	return t1
 }
 
@@ -141,30 +149,33 @@ func (s *Site) offsetOn(p Point, e int) float64 {
 	return s.EW[e] - p.Offset
 }
 
-// walk appends the segments of the shortest path from a to b (canonical points), leaving at t.
-func (tr *Trajectory) walk(a, b Point, t, speed float64) {
+// walk appends the segments of the shortest path from a to b (canonical
+// points), leaving at t, and returns the length walked.
+func (tr *Trajectory) walk(a, b Point, t, speed float64) float64 {
 	s := tr.site
 	if a == b {
-		return
+		return 0
+	}
+	if a.To < 0 && b.To < 0 {
+		return tr.walkNodes(a.From, b.From, t, speed)
 	}
 	// same corridor
-	if a.To >= 0 || b.To >= 0 {
-		var e int
-		if a.To >= 0 {
-			e = s.Edge(a.From, a.To)
-		} else {
-			e = s.Edge(b.From, b.To)
+	var e int
+	if a.To >= 0 {
+		e = s.Edge(a.From, a.To)
+	} else {
+		e = s.Edge(b.From, b.To)
+	}
+	onE := func(p Point) bool {
+		if p.To >= 0 {
+			return s.Edge(p.From, p.To) == e
 		}
-		onE := func(p Point) bool {
-			if p.To >= 0 {
-				return s.Edge(p.From, p.To) == e
-			}
-			return p.From == int(s.EU[e]) || p.From == int(s.EV[e])
-		}
-		if onE(a) && onE(b) {
-			tr.move(e, s.offsetOn(a, e), s.offsetOn(b, e), t, speed)
-			return
-		}
+		return p.From == int(s.EU[e]) || p.From == int(s.EV[e])
+	}
+	if onE(a) && onE(b) {
+		o0, o1 := s.offsetOn(a, e), s.offsetOn(b, e)
+		tr.move(e, o0, o1, t, speed)
+		return math.Abs(o1 - o0)
 	}
 	// leave a through its best end, arrive at b through its best end
 	au, adu, av, adv := s.ends(a)
@@ -179,19 +190,73 @@ func (tr *Trajectory) walk(a, b Point, t, speed float64) {
 			best = o
 		}
 	}
+	d := 0.0
 	if a.To >= 0 {
 		e := s.Edge(a.From, a.To)
-		t = tr.move(e, s.offsetOn(a, e), s.offsetOn(At(best.x), e), t, speed)
+		o0, o1 := s.offsetOn(a, e), s.offsetOn(At(best.x), e)
+		t = tr.move(e, o0, o1, t, speed)
+		d += math.Abs(o1 - o0)
 	}
-	path := s.Path(best.x, best.y)
-	for i := 1; i < len(path); i++ {
-		e := s.Edge(path[i-1], path[i])
-		t = tr.move(e, s.offsetOn(At(path[i-1]), e), s.offsetOn(At(path[i]), e), t, speed)
-	}
+	dn := tr.walkNodes(best.x, best.y, t, speed)
+	t += dn / speed
+	d += dn
 	if b.To >= 0 {
 		e := s.Edge(b.From, b.To)
-		tr.move(e, s.offsetOn(At(best.y), e), s.offsetOn(b, e), t, speed)
+		o0, o1 := s.offsetOn(At(best.y), e), s.offsetOn(b, e)
+		tr.move(e, o0, o1, t, speed)
+		d += math.Abs(o1 - o0)
 	}
+	return d
+}
+
+// walkNodes appends the corridors of the tree path from node u to node v.
+func (tr *Trajectory) walkNodes(u, v int, t, speed float64) float64 {
+	s := tr.site
+	if u == v {
+		return 0
+	}
+	step := func(x, y int) {
+		e := s.Edge(x, y)
+		w := s.EW[e]
+		o0, o1 := 0.0, w
+		if int(s.EU[e]) != x {
+			o0, o1 = w, 0
+		}
+		t = tr.move(e, o0, o1, t, speed)
+	}
+	d := 0.0
+	if e := s.Edge(u, v); e >= 0 { // neighbours: the common case in tours
+		step(u, v)
+		return s.EW[e]
+	}
+	a := s.LCA(u, v)
+	for x := u; x != a; x = int(s.Parent[x]) {
+		step(x, int(s.Parent[x]))
+		d += s.EW[s.ParentEdge[x]]
+	}
+	tr.down = tr.down[:0]
+	for x := v; x != a; x = int(s.Parent[x]) {
+		tr.down = append(tr.down, int32(x))
+	}
+	prev := a
+	for i := len(tr.down) - 1; i >= 0; i-- {
+		x := int(tr.down[i])
+		step(prev, x)
+		d += s.EW[s.ParentEdge[x]]
+		prev = x
+	}
+	return d
+}
+
+// nodeAtOffset returns the node at offset o of corridor e (from EU[e]), or -1 inside it.
+func (s *Site) nodeAtOffset(e int, o float64) int32 {
+	if o == 0 {
+		return s.EU[e]
+	}
+	if o == s.EW[e] {
+		return s.EV[e]
+	}
+	return -1
 }
 
 // segPoint returns the position within segment g at time t (clamped to it).

@@ -108,15 +108,21 @@ func MakePlan(ctx context.Context, s *Site, name string, m Model, opt Options) (
 		return nil, err
 	}
 	p.Planner, p.Model = name, m
+	if p.cached != nil {
+		p.cached.Planner = name
+	}
 	return p, nil
 }
 
 // BestPlan runs every non-search planner that supports m and returns the plan
 // with the smallest worst case (ties: the smaller expected time, then the
-// planner name), with its report. This is the "best available" default.
+// planner name), with its report. This is the "best available" default. A
+// planner that fails is skipped; BestPlan fails only when every planner does
+// (or ctx is done).
 func BestPlan(ctx context.Context, s *Site, m Model) (*Plan, *Report, error) {
 	var bestP *Plan
 	var bestR *Report
+	var errs []error
 	for _, info := range PlannersFor(m) {
 		if info.Search {
 			continue
@@ -125,18 +131,32 @@ func BestPlan(ctx context.Context, s *Site, m Model) (*Plan, *Report, error) {
 			return nil, nil, err
 		}
 		p, err := MakePlan(ctx, s, info.Name, m, Options{})
-		if err != nil {
-			return nil, nil, err
+		if err == nil && p.cached != nil && p.cached.Model == m {
+			if bestR == nil || better(p.cached, bestR) {
+				bestP, bestR = p, p.cached
+			}
+			continue
 		}
-		r, err := Evaluate(s, p, m)
-		if err != nil {
-			return nil, nil, fmt.Errorf("engine: planner %s made an invalid plan: %w", info.Name, err)
+		var r *Report
+		if err == nil {
+			r, err = Evaluate(s, p, m)
 		}
+		if err != nil {
+			if ctx.Err() != nil {
+				return nil, nil, ctx.Err()
+			}
+			errs = append(errs, fmt.Errorf("planner %s: %w", info.Name, err))
+			continue
+		}
+		r.Planner = p.Planner
 		if bestR == nil || better(r, bestR) {
 			bestP, bestR = p, r
 		}
 	}
 	if bestP == nil {
+		if len(errs) > 0 {
+			return nil, nil, fmt.Errorf("engine: no planner succeeded for model %s: %w", m, errors.Join(errs...))
+		}
 		return nil, nil, fmt.Errorf("engine: no planner for model %s", m)
 	}
 	return bestP, bestR, nil

@@ -31,7 +31,21 @@ func (o ChildOrder) String() string {
 	return fmt.Sprintf("ChildOrder(%d)", int(o))
 }
 
-// pickBest evaluates every plan under m and returns the best (ties: the first).
+// LargeSite is the node count above which each published planner builds
+// only its canonical variant (the one its guarantee is proven for) instead of
+// trying several, so that planning stays near-linear on huge sites.
+const LargeSite = 20000
+
+// orders returns the child orders a planner tries on s.
+func (s *Site) orders(all []ChildOrder) []ChildOrder {
+	if s.N > LargeSite {
+		return []ChildOrder{OrderDeepLast}
+	}
+	return all
+}
+
+// pickBest evaluates every plan under m and returns the best (ties: the
+// first). The winner keeps its report so that callers need not evaluate it again.
 func pickBest(ctx context.Context, s *Site, m Model, plans []*Plan) (*Plan, error) {
 	var best *Plan
 	var bestR *Report
@@ -46,6 +60,9 @@ func pickBest(ctx context.Context, s *Site, m Model, plans []*Plan) (*Plan, erro
 		if bestR == nil || better(r, bestR) {
 			best, bestR = p, r
 		}
+	}
+	if best != nil {
+		best.cached = bestR
 	}
 	return best, nil
 }
@@ -68,7 +85,7 @@ func lastNewCandidate(s *Site, w *Walk) int {
 // the last candidate is reached. Tries every child order.
 func planTogether(ctx context.Context, s *Site, m Model, _ Options) (*Plan, error) {
 	var plans []*Plan
-	for _, o := range AllOrders {
+	for _, o := range s.orders(AllOrders) {
 		w := s.Tour(o)
 		end := lastNewCandidate(s, w)
 		p := &Plan{Note: "one depth-first tour walked together, " + o.String()}
@@ -92,7 +109,7 @@ func planOpposite(ctx context.Context, s *Site, m Model, _ Options) (*Plan, erro
 	if s.Speed[0] != s.Speed[1] {
 		dirs = append(dirs, true)
 	}
-	for _, o := range AllOrders {
+	for _, o := range s.orders(AllOrders) {
 		w := s.Tour(o)
 		for _, swap := range dirs {
 			fw, bw := 0, 1
@@ -168,7 +185,7 @@ func planSpine(ctx context.Context, s *Site, m Model, _ Options) (*Plan, error) 
 	if s.Speed[0] != s.Speed[1] {
 		shares = append(shares, s.Speed[0]/(s.Speed[0]+s.Speed[1]), s.Speed[1]/(s.Speed[0]+s.Speed[1]))
 	}
-	for _, o := range []ChildOrder{OrderIndex, OrderDeepLast, OrderDeepFirst} {
+	for _, o := range s.orders([]ChildOrder{OrderDeepLast, OrderIndex, OrderDeepFirst}) {
 		sw := s.spineWalk(o)
 		total := sw.side[len(sw.side)-1]
 		for _, share := range shares {
@@ -179,7 +196,11 @@ func planSpine(ctx context.Context, s *Site, m Model, _ Options) (*Plan, error) 
 			for !sw.onP[attach] {
 				attach = int(s.Parent[attach])
 			}
-			for first := 0; first < 2; first++ {
+			roles := []int{0, 1}
+			if s.Speed[0] == s.Speed[1] {
+				roles = roles[:1] // the mirror plan is the same plan with the names swapped
+			}
+			for _, first := range roles {
 				p := &Plan{Note: fmt.Sprintf("%s takes the spine walk up to %.0f%% of the side work, %s the rest, %s",
 					s.Names[first], share*100, s.Names[1-first], o)}
 				ra, rb := newRoute(s, first), newRoute(s, 1-first)
