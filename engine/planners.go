@@ -114,43 +114,49 @@ func MakePlan(ctx context.Context, s *Site, name string, m Model, opt Options) (
 	return p, nil
 }
 
-// BestPlan runs every non-search planner that supports m and returns the plan
-// with the smallest worst case (ties: the smaller expected time, then the
-// planner name), with its report. This is the "best available" default. A
-// planner that fails is skipped; BestPlan fails only when every planner does
-// (or ctx is done).
+// BestPlan runs every non-search planner and returns the plan with the
+// smallest worst case under m (ties: the smaller expected time, then the
+// order of Planners), with its report. Since any plan can be evaluated under
+// either model, plans made for the other model compete too (a radio plan
+// can be the best face-to-face plan: Plan.Model says what it was made for).
+// This is the "best available" default. A planner that fails is skipped;
+// BestPlan fails only when every planner does (or ctx is done).
 func BestPlan(ctx context.Context, s *Site, m Model) (*Plan, *Report, error) {
 	var bestP *Plan
 	var bestR *Report
 	var errs []error
-	for _, info := range PlannersFor(m) {
+	for _, info := range Planners() {
 		if info.Search {
 			continue
 		}
-		if err := ctx.Err(); err != nil {
-			return nil, nil, err
-		}
-		p, err := MakePlan(ctx, s, info.Name, m, Options{})
-		if err == nil && p.cached != nil && p.cached.Model == m {
-			if bestR == nil || better(p.cached, bestR) {
-				bestP, bestR = p, p.cached
+		// plans made for m first, so that they win ties
+		for _, made := range []Model{m, 1 - m} {
+			if !info.Supports(made) {
+				continue
 			}
-			continue
-		}
-		var r *Report
-		if err == nil {
-			r, err = Evaluate(s, p, m)
-		}
-		if err != nil {
-			if ctx.Err() != nil {
-				return nil, nil, ctx.Err()
+			if err := ctx.Err(); err != nil {
+				return nil, nil, err
 			}
-			errs = append(errs, fmt.Errorf("planner %s: %w", info.Name, err))
-			continue
-		}
-		r.Planner = p.Planner
-		if bestR == nil || better(r, bestR) {
-			bestP, bestR = p, r
+			p, err := MakePlan(ctx, s, info.Name, made, Options{})
+			var r *Report
+			if err == nil {
+				if p.cached != nil && p.cached.Model == m {
+					r = p.cached
+				} else {
+					r, err = Evaluate(s, p, m)
+				}
+			}
+			if err != nil {
+				if ctx.Err() != nil {
+					return nil, nil, ctx.Err()
+				}
+				errs = append(errs, fmt.Errorf("planner %s (%s): %w", info.Name, made, err))
+				continue
+			}
+			r.Planner = p.Planner
+			if bestR == nil || better(r, bestR) {
+				bestP, bestR = p, r
+			}
 		}
 	}
 	if bestP == nil {
