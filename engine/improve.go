@@ -1,0 +1,743 @@
+package engine
+
+// The improve planner: anytime local search from the best published plan.
+//
+// A plan is held as, for each agent, an ordered list of items: a target point
+// (a node or a point inside a corridor) with an optional extra wait, or a
+// meeting. The k-th meeting item of each agent's list is the k-th rendezvous:
+// both walk to its node, the earlier waits for the later, and both waypoints
+// are marked rendezvous at the meeting time. Between items an agent walks the
+// tree path at full speed. The start plan is converted by dropping the
+// waypoints that lie on the path between their neighbours (a depth-first
+// tour becomes its list of turning points) and pairing the agents'
+// rendezvous waypoints in order.
+//
+// Moves: swap two items of one agent; move an item or a block of up to three
+// to another place, possibly in the partner's list (handing a subtree to the
+// other agent); reverse a stretch of a list (reversing a child order); move
+// the item that first reaches the current worst exit earlier or to the
+// partner; insert a detour to an anchor node (hedging or parking); delete an
+// item; snap a corridor point to an end or slide it (moving a split point);
+// face to face also add, drop or move a rendezvous, or move a meeting item
+// within its list. Every candidate plan is scored by Evaluate.
+//
+// Acceptance is simulated annealing (Kirkpatrick, Gelatt and Vecchi, 1983):
+// a worse candidate is accepted with probability exp(−Δ/T), the temperature
+// T falling quadratically from 10% of the start score to zero over the budget
+// (the iteration cap when one is set, else the time budget). The score is the
+// worst case plus 2% of the mean evacuation time, which gives the search a
+// slope on the plateaus of the worst case. One move in three is followed by
+// another (compound moves cross ridges a single move cannot). After 1,500
+// iterations without a new best the search restarts, alternately from the
+// best plan and from another published planner's plan, with three random
+// moves. The best plan by exact worst case (then expected time) is
+// returned; it is never worse than the start plan, which is returned
+// unchanged when nothing better turns up.
+//
+// Randomness comes only from a PCG source seeded with Options.Seed, and the
+// time is read only to stop: with Options.Iterations set and no Budget the
+// result depends only on the seed and the iteration count. With a time budget
+// (default 5 s when no iteration cap is given) the number of iterations, and
+// so the result, depends on the machine and its load.
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"time"
+)
+
+// DefaultImproveBudget is the improve planner's time budget when neither
+// Options.Budget nor Options.Iterations is set.
+const DefaultImproveBudget = 5 * time.Second
+
+func init() {
+	register(PlannerInfo{Name: "improve", Models: Models, Search: true,
+		Summary: "anytime local search (simulated annealing) from the best published plan, every plan scored exactly; never worse than its start"},
+		planImprove)
+}
+
+type imItem struct {
+	P    Point
+	Wait float64 // extra wait after arriving (not for meetings)
+	Meet bool    // a meeting: the place is the rendezvous node of its ordinal
+	RV   bool    // a rendezvous mark without a paired meeting (kept from the start plan)
+}
+
+type imState struct {
+	list [2][]imItem
+	meet []Point // rendezvous places, by ordinal
+}
+
+func (st *imState) clone() *imState {
+	c := &imState{meet: append([]Point(nil), st.meet...)}
+	for a := 0; a < 2; a++ {
+		c.list[a] = append([]imItem(nil), st.list[a]...)
+	}
+	return c
+}
+
+// ImproveResult reports what the improve search did.
+type ImproveResult struct {
+	Iterations  int
+	Evaluations int
+	Accepted    int
+	Improved    bool    // a plan better than the start was found
+	Start, Best float64 // worst case of the start plan and of the result
+	Elapsed     time.Duration
+}
+
+func planImprove(ctx context.Context, s *Site, m Model, opt Options) (*Plan, error) {
+	p, _, err := Improve(ctx, s, m, opt)
+	return p, err
+}
+
+// Improve runs the improve planner from the best published plan.
+func Improve(ctx context.Context, s *Site, m Model, opt Options) (*Plan, ImproveResult, error) {
+	start, _, err := BestPlan(ctx, s, m)
+	if err != nil {
+		return nil, ImproveResult{}, fmt.Errorf("engine: improve: %w", err)
+	}
+	return ImproveFrom(ctx, s, m, start, opt)
+}
+
+// ImproveFrom runs the improve search from the given plan (which must be
+// valid on s). The result is never worse than start under m.
+func ImproveFrom(ctx context.Context, s *Site, m Model, start *Plan, opt Options) (*Plan, ImproveResult, error) {
+	t0 := time.Now()
+	var res ImproveResult
+	r0, err := Evaluate(s, start, m)
+	if err != nil {
+		return nil, res, fmt.Errorf("engine: improve: start plan: %w", err)
+	}
+	res.Start, res.Best = r0.Worst, r0.Worst
+	budget := opt.Budget
+	if budget <= 0 && opt.Iterations <= 0 {
+		budget = DefaultImproveBudget
+	}
+	var deadline time.Time
+	if budget > 0 {
+		deadline = t0.Add(budget)
+	}
+	im := newImprover(s, m, opt.Seed)
+	bestP, bestR := clonePlan(start), r0
+	cur := im.fromPlan(start)
+	curP := im.toPlan(cur)
+	curR, err := Evaluate(s, curP, m)
+	res.Evaluations++
+	if err != nil || !curR.Complete {
+		// the conversion lost something (it should not): search from it anyway
+		curR = r0
+	} else if better(curR, bestR) {
+		bestP, bestR = curP, curR
+	}
+	curScore := im.score(curR)
+	if len(s.Candidates()) == 0 || math.IsInf(curScore, 1) {
+		return im.finish(start, bestP, bestR, r0, res, t0), res, nil
+	}
+	t0Temp := 0.1 * curScore
+	best := cur.clone()
+	sinceBest, restarts := 0, 0
+	starts := im.otherStarts(ctx, start)
+	lastProg := t0
+	for it := 0; opt.Iterations <= 0 || it < opt.Iterations; it++ {
+		if it&31 == 0 {
+			if ctx.Err() != nil {
+				break
+			}
+			now := time.Now()
+			if !deadline.IsZero() && now.After(deadline) {
+				break
+			}
+			if opt.Progress != nil && now.Sub(lastProg) >= 100*time.Millisecond {
+				lastProg = now
+				done := 0.0
+				if budget > 0 {
+					done = float64(now.Sub(t0)) / float64(budget)
+				}
+				if opt.Iterations > 0 {
+					done = math.Max(done, float64(it)/float64(opt.Iterations))
+				}
+				opt.Progress(Progress{Done: math.Min(1, done), Best: bestR.Worst,
+					Note: fmt.Sprintf("improve: %d iterations, %d evaluations", it, res.Evaluations)})
+			}
+		}
+		res.Iterations++
+		if sinceBest > 1500 {
+			// restart from the best, or from another published plan, with a kick
+			restarts++
+			cur = best.clone()
+			if len(starts) > 0 && restarts%2 == 0 {
+				cur = starts[(restarts/2)%len(starts)].clone()
+			}
+			for k := 0; k < 3; k++ {
+				if c := im.mutate(cur, curR); c != nil {
+					cur = c
+				}
+			}
+			cr, ok := im.eval(cur, &res)
+			if ok {
+				curR, curScore = cr, im.score(cr)
+			} else {
+				cur = best.clone()
+			}
+			sinceBest = 0
+		}
+		cand := im.mutate(cur, curR)
+		for cand != nil && im.rng.IntN(3) == 0 {
+			if c2 := im.mutate(cand, nil); c2 != nil {
+				cand = c2
+			} else {
+				break
+			}
+		}
+		sinceBest++
+		if cand == nil {
+			continue
+		}
+		cr, ok := im.eval(cand, &res)
+		if !ok {
+			continue
+		}
+		sc := im.score(cr)
+		// simulated annealing: the temperature falls from 10% of the start
+		// score to zero over the budget (iterations, else time)
+		frac := 0.0
+		if opt.Iterations > 0 {
+			frac = float64(it) / float64(opt.Iterations)
+		} else if budget > 0 {
+			frac = float64(time.Since(t0)) / float64(budget)
+		}
+		temp := t0Temp * (1 - frac) * (1 - frac)
+		if d := sc - curScore; d <= 0 || temp > 0 && im.rng.Float64() < math.Exp(-d/temp) {
+			cur, curR, curScore = cand, cr, sc
+			res.Accepted++
+		}
+		if better(cr, bestR) {
+			bestP, bestR = im.toPlan(cand), cr
+			best = cand.clone()
+			sinceBest = 0
+		}
+	}
+	return im.finish(start, bestP, bestR, r0, res, t0), im.lastRes(res, bestR, t0), nil
+}
+
+func (im *improver) lastRes(res ImproveResult, bestR *Report, t0 time.Time) ImproveResult {
+	res.Best = bestR.Worst
+	res.Improved = res.Best < res.Start*(1-1e-12)
+	res.Elapsed = time.Since(t0)
+	return res
+}
+
+func (im *improver) finish(start, bestP *Plan, bestR, r0 *Report, res ImproveResult, t0 time.Time) *Plan {
+	if !better(bestR, r0) {
+		p := clonePlan(start)
+		p.Note = fmt.Sprintf("improve found nothing better than the %s plan in %d iterations (%s)", start.Planner, res.Iterations, start.Note)
+		return p
+	}
+	p := clonePlan(bestP)
+	p.Note = fmt.Sprintf("improved the %s plan from worst %.6g to %.6g by local search (%d iterations, seed %d); not proven optimal, certified gap %.3g%%",
+		start.Planner, r0.Worst, bestR.Worst, res.Iterations, im.seed, 100*bestR.Gap)
+	return p
+}
+
+type improver struct {
+	s       *Site
+	m       Model
+	rng     *rand.Rand
+	seed    int64
+	anchors []int // start, candidates, branch nodes of the search tree
+	cand    []int
+}
+
+func newImprover(s *Site, m Model, seed int64) *improver {
+	im := &improver{s: s, m: m, seed: seed, rng: rand.New(rand.NewPCG(uint64(seed), 0x1a7e_acce_97))}
+	for v := 0; v < s.N; v++ {
+		if !s.InSearch[v] {
+			continue
+		}
+		deg := 0
+		if p := s.Parent[v]; p >= 0 {
+			deg++
+		}
+		for _, c := range s.Children(v) {
+			if s.InSearch[c] {
+				deg++
+			}
+		}
+		if v == s.Start || s.Candidate[v] || deg >= 3 {
+			im.anchors = append(im.anchors, v)
+		}
+		if s.Candidate[v] {
+			im.cand = append(im.cand, v)
+		}
+	}
+	return im
+}
+
+// score is what the acceptance rule compares: the worst case plus a small
+// share of the mean evacuation time.
+func (im *improver) score(r *Report) float64 {
+	if !r.Complete || len(r.Exits) == 0 {
+		return math.Inf(1)
+	}
+	sum := 0.0
+	for _, e := range r.Exits {
+		sum += e.EvacAt
+	}
+	return r.Worst + 0.02*sum/float64(len(r.Exits))
+}
+
+func (im *improver) eval(st *imState, res *ImproveResult) (*Report, bool) {
+	p := im.toPlan(st)
+	res.Evaluations++
+	r, err := Evaluate(im.s, p, im.m)
+	if err != nil || !r.Complete {
+		return nil, false
+	}
+	return r, true
+}
+
+// fromPlan converts a plan into item lists.
+func (im *improver) fromPlan(p *Plan) *imState {
+	s := im.s
+	st := &imState{}
+	var rv [2][]int
+	for a := 0; a < 2; a++ {
+		for i, w := range p.Routes[a].Waypoints {
+			if w.Rendezvous {
+				rv[a] = append(rv[a], i)
+			}
+		}
+	}
+	paired := len(rv[0]) == len(rv[1]) && im.m == FaceToFace
+	if paired {
+		for k := range rv[0] {
+			p0 := s.Canon(p.Routes[0].Waypoints[rv[0][k]].P)
+			p1 := s.Canon(p.Routes[1].Waypoints[rv[1][k]].P)
+			if p0 != p1 {
+				paired = false
+				break
+			}
+		}
+	}
+	if paired {
+		for _, i := range rv[0] {
+			st.meet = append(st.meet, s.Canon(p.Routes[0].Waypoints[i].P))
+		}
+	}
+	for a := 0; a < 2; a++ {
+		wps := p.Routes[a].Waypoints
+		cur, t := At(s.Start), 0.0
+		var items []imItem
+		for i, w := range wps {
+			q := s.Canon(w.P)
+			arrive := t + s.PointDist(cur, q)/s.Speed[a]
+			wait := math.Max(0, w.T-arrive)
+			it := imItem{P: q, Wait: wait}
+			if w.Rendezvous {
+				if paired {
+					it = imItem{Meet: true}
+				} else if im.m == FaceToFace {
+					it.RV = true
+				}
+			}
+			keep := true
+			if !it.Meet && !it.RV && wait <= tol(w.T) && i+1 < len(wps) && len(items) > 0 {
+				prev := cur
+				next := s.Canon(wps[i+1].P)
+				if d := s.PointDist(prev, q) + s.PointDist(q, next) - s.PointDist(prev, next); d <= 1e-9*math.Max(1, s.PointDist(prev, next)) {
+					keep = false
+				}
+			}
+			if keep {
+				if !it.Meet && wait <= tol(w.T) {
+					it.Wait = 0
+				}
+				items = append(items, it)
+				cur = q
+			}
+			t = math.Max(arrive, w.T)
+			if !keep {
+				cur = q
+			}
+		}
+		st.list[a] = items
+	}
+	return st
+}
+
+// toPlan turns item lists into routes with tight times; meetings wait for
+// the later agent.
+func (im *improver) toPlan(st *imState) *Plan {
+	s := im.s
+	p := &Plan{Planner: "improve", Model: im.m}
+	var cur [2]Point
+	var t [2]float64
+	var idx [2]int
+	var wps [2][]Waypoint
+	cur[0], cur[1] = At(s.Start), At(s.Start)
+	for k := 0; ; k++ {
+		// walk each agent up to its next meeting (or the end)
+		for a := 0; a < 2; a++ {
+			for idx[a] < len(st.list[a]) && !st.list[a][idx[a]].Meet {
+				it := st.list[a][idx[a]]
+				idx[a]++
+				t[a] += s.PointDist(cur[a], it.P) / s.Speed[a]
+				t[a] += it.Wait
+				cur[a] = it.P
+				wps[a] = append(wps[a], Waypoint{P: it.P, T: t[a], Rendezvous: it.RV})
+			}
+		}
+		if k >= len(st.meet) || idx[0] >= len(st.list[0]) || idx[1] >= len(st.list[1]) {
+			break
+		}
+		R := st.meet[k]
+		tm := math.Max(t[0]+s.PointDist(cur[0], R)/s.Speed[0], t[1]+s.PointDist(cur[1], R)/s.Speed[1])
+		for a := 0; a < 2; a++ {
+			idx[a]++
+			t[a], cur[a] = tm, R
+			wps[a] = append(wps[a], Waypoint{P: R, T: tm, Rendezvous: true})
+		}
+	}
+	p.Routes[0].Waypoints, p.Routes[1].Waypoints = wps[0], wps[1]
+	return p
+}
+
+// meetCount returns the number of meeting items in a list.
+func meetCount(l []imItem) int {
+	n := 0
+	for _, it := range l {
+		if it.Meet {
+			n++
+		}
+	}
+	return n
+}
+
+// mutate returns a changed copy of st, or nil when the drawn move does not apply.
+func (im *improver) mutate(st *imState, r *Report) *imState {
+	s := im.s
+	rng := im.rng
+	c := st.clone()
+	a := rng.IntN(2)
+	l := c.list[a]
+	nMoves := 10
+	if im.m == FaceToFace {
+		nMoves = 16
+	}
+	switch mv := rng.IntN(nMoves); mv {
+	case 0: // swap two items
+		if len(l) < 2 {
+			return nil
+		}
+		i, j := rng.IntN(len(l)), rng.IntN(len(l))
+		if i == j {
+			return nil
+		}
+		l[i], l[j] = l[j], l[i]
+	case 1, 2: // move a block of 1..3 items, maybe to the partner
+		if len(l) == 0 {
+			return nil
+		}
+		n := 1 + rng.IntN(3)
+		i := rng.IntN(len(l))
+		if i+n > len(l) {
+			n = len(l) - i
+		}
+		block := append([]imItem(nil), l[i:i+n]...)
+		b := a
+		if mv == 2 {
+			b = 1 - a
+			for _, it := range block {
+				if it.Meet {
+					return nil
+				}
+			}
+		}
+		c.list[a] = append(l[:i:i], l[i+n:]...)
+		dst := c.list[b]
+		j := rng.IntN(len(dst) + 1)
+		c.list[b] = append(dst[:j:j], append(block, dst[j:]...)...)
+	case 3: // reverse a stretch
+		if len(l) < 2 {
+			return nil
+		}
+		i, j := rng.IntN(len(l)), rng.IntN(len(l))
+		if i > j {
+			i, j = j, i
+		}
+		if i == j {
+			return nil
+		}
+		for ; i < j; i, j = i+1, j-1 {
+			l[i], l[j] = l[j], l[i]
+		}
+	case 4, 5: // the item that first reaches the worst exit: earlier, or to the partner
+		if r == nil || r.WorstExit < 0 {
+			return nil
+		}
+		x := r.WorstExit
+		ex, _ := r.ExitFor(x)
+		f := ex.Finder
+		if f != 0 && f != 1 {
+			f = rng.IntN(2)
+		}
+		a = f
+		l = c.list[a]
+		// first item at or after which the agent has reached x: the first item whose point is x or beyond x
+		i := -1
+		for k, it := range l {
+			if !it.Meet && it.P.IsNode() && (it.P.From == x || s.LCA(it.P.From, x) == x) {
+				i = k
+				break
+			}
+		}
+		if i < 0 {
+			return nil
+		}
+		it := l[i]
+		c.list[a] = append(l[:i:i], l[i+1:]...)
+		b := a
+		if mv == 5 {
+			b = 1 - a
+		}
+		dst := c.list[b]
+		j := 0
+		if len(dst) > 0 {
+			hi := len(dst)
+			if b == a {
+				hi = i
+			}
+			j = rng.IntN(hi + 1)
+		}
+		c.list[b] = append(dst[:j:j], append([]imItem{{P: At(x)}, it}, dst[j:]...)...)
+		if it.P == At(x) {
+			c.list[b] = append(c.list[b][:j+1], c.list[b][j+2:]...)
+		}
+	case 6: // insert a detour to an anchor (hedge / park)
+		v := im.anchors[rng.IntN(len(im.anchors))]
+		j := rng.IntN(len(l) + 1)
+		c.list[a] = append(l[:j:j], append([]imItem{{P: At(v)}}, l[j:]...)...)
+	case 7: // delete an item
+		if len(l) == 0 {
+			return nil
+		}
+		i := rng.IntN(len(l))
+		if l[i].Meet {
+			return nil
+		}
+		c.list[a] = append(l[:i:i], l[i+1:]...)
+	case 8: // snap or slide a corridor point (a split point)
+		var pts []int
+		for k, it := range l {
+			if !it.Meet && !it.P.IsNode() {
+				pts = append(pts, k)
+			}
+		}
+		if len(pts) == 0 {
+			// drop a wait instead
+			for k := range l {
+				if l[k].Wait > 0 {
+					l[k].Wait *= rng.Float64()
+					return c
+				}
+			}
+			return nil
+		}
+		k := pts[rng.IntN(len(pts))]
+		p := l[k].P
+		w := s.EW[s.Edge(p.From, p.To)]
+		switch rng.IntN(3) {
+		case 0:
+			l[k].P = At(p.From)
+		case 1:
+			l[k].P = At(p.To)
+		default:
+			p.Offset = math.Max(0, math.Min(w, p.Offset+(rng.Float64()-0.5)*w*0.5))
+			l[k].P = s.Canon(p)
+		}
+	case 9: // replace an item by a neighbouring anchor or candidate
+		if len(l) == 0 {
+			return nil
+		}
+		i := rng.IntN(len(l))
+		if l[i].Meet {
+			return nil
+		}
+		v := im.cand[rng.IntN(len(im.cand))]
+		if rng.IntN(2) == 0 {
+			v = im.anchors[rng.IntN(len(im.anchors))]
+		}
+		l[i] = imItem{P: At(v)}
+	case 10: // add a rendezvous
+		k := rng.IntN(len(c.meet) + 1)
+		R := At(im.anchors[rng.IntN(len(im.anchors))])
+		for b := 0; b < 2; b++ {
+			lo, hi := meetRange(c.list[b], k)
+			j := lo + rng.IntN(hi-lo+1)
+			lb := c.list[b]
+			c.list[b] = append(lb[:j:j], append([]imItem{{Meet: true}}, lb[j:]...)...)
+		}
+		c.meet = append(c.meet[:k:k], append([]Point{R}, c.meet[k:]...)...)
+	case 11: // drop a rendezvous
+		if len(c.meet) == 0 {
+			return nil
+		}
+		k := rng.IntN(len(c.meet))
+		for b := 0; b < 2; b++ {
+			n := 0
+			for i, it := range c.list[b] {
+				if it.Meet {
+					if n == k {
+						c.list[b] = append(c.list[b][:i:i], c.list[b][i+1:]...)
+						break
+					}
+					n++
+				}
+			}
+		}
+		c.meet = append(c.meet[:k:k], c.meet[k+1:]...)
+	case 12: // move a rendezvous to a neighbouring node or another anchor
+		if len(c.meet) == 0 {
+			return nil
+		}
+		k := rng.IntN(len(c.meet))
+		R := c.meet[k]
+		if R.IsNode() && rng.IntN(2) == 0 {
+			v := R.From
+			var nb []int
+			if p := s.Parent[v]; p >= 0 {
+				nb = append(nb, int(p))
+			}
+			for _, ch := range s.Children(v) {
+				if s.InSearch[ch] {
+					nb = append(nb, int(ch))
+				}
+			}
+			if len(nb) == 0 {
+				return nil
+			}
+			c.meet[k] = At(nb[rng.IntN(len(nb))])
+		} else {
+			c.meet[k] = At(im.anchors[rng.IntN(len(im.anchors))])
+		}
+	case 13: // move a meeting item within its list
+		n := meetCount(l)
+		if n == 0 {
+			return nil
+		}
+		k := rng.IntN(n)
+		cnt := 0
+		for i, it := range l {
+			if it.Meet {
+				if cnt == k {
+					l = append(l[:i:i], l[i+1:]...)
+					break
+				}
+				cnt++
+			}
+		}
+		lo, hi := meetRange(l, k)
+		j := lo + rng.IntN(hi-lo+1)
+		c.list[a] = append(l[:j:j], append([]imItem{{Meet: true}}, l[j:]...)...)
+	case 14, 15: // a rendezvous right after one of a's items, where b is at about that time
+		if len(l) == 0 {
+			return nil
+		}
+		i := rng.IntN(len(l))
+		if l[i].Meet {
+			return nil
+		}
+		R := l[i].P
+		if !R.IsNode() || mv == 15 {
+			R = At(im.anchors[rng.IntN(len(im.anchors))])
+		}
+		ta := im.itemTimes(c, a)
+		tb := im.itemTimes(c, 1-a)
+		lb := c.list[1-a]
+		j := len(lb)
+		for k := range lb {
+			if tb[k] >= ta[i] {
+				j = k
+				if k > 0 && ta[i]-tb[k-1] < tb[k]-ta[i] {
+					j = k - 1
+				}
+				j++ // after that item
+				break
+			}
+		}
+		if j > len(lb) {
+			j = len(lb)
+		}
+		ka, kb := meetCount(l[:i+1]), meetCount(lb[:j])
+		if ka != kb {
+			return nil
+		}
+		c.list[a] = append(l[:i+1:i+1], append([]imItem{{Meet: true}}, l[i+1:]...)...)
+		c.list[1-a] = append(lb[:j:j], append([]imItem{{Meet: true}}, lb[j:]...)...)
+		c.meet = append(c.meet[:ka:ka], append([]Point{R}, c.meet[ka:]...)...)
+	}
+	if meetCount(c.list[0]) != len(c.meet) || meetCount(c.list[1]) != len(c.meet) {
+		return nil
+	}
+	return c
+}
+
+// meetRange returns the insert positions in l that put a meeting item k-th
+// among the meeting items: after the (k−1)-th and up to the k-th.
+func meetRange(l []imItem, k int) (lo, hi int) {
+	n := 0
+	lo, hi = 0, len(l)
+	for i, it := range l {
+		if it.Meet {
+			if n == k-1 {
+				lo = i + 1
+			}
+			if n == k {
+				hi = i
+				break
+			}
+			n++
+		}
+	}
+	return lo, hi
+}
+
+// itemTimes returns the time at which agent a finishes each of its items
+// (meetings ignoring the partner: a lower estimate, enough to align moves).
+func (im *improver) itemTimes(st *imState, a int) []float64 {
+	s := im.s
+	out := make([]float64, len(st.list[a]))
+	cur, t, k := At(s.Start), 0.0, 0
+	for i, it := range st.list[a] {
+		p := it.P
+		if it.Meet {
+			if k < len(st.meet) {
+				p = st.meet[k]
+			}
+			k++
+		}
+		t += s.PointDist(cur, p)/s.Speed[a] + it.Wait
+		cur = p
+		out[i] = t
+	}
+	return out
+}
+
+// otherStarts converts the plans of the other published planners, for restarts.
+func (im *improver) otherStarts(ctx context.Context, start *Plan) []*imState {
+	var out []*imState
+	for _, info := range PlannersFor(im.m) {
+		if info.Search || info.Name == start.Planner {
+			continue
+		}
+		p, err := MakePlan(ctx, im.s, info.Name, im.m, Options{})
+		if err != nil {
+			continue
+		}
+		out = append(out, im.fromPlan(p))
+	}
+	return out
+}
