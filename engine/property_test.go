@@ -10,6 +10,7 @@ import (
 	"fmt"
 	"math"
 	"os"
+	"reflect"
 	"sort"
 	"strings"
 	"testing"
@@ -330,6 +331,32 @@ func TestExhaustivePartition(t *testing.T) {
 				t.Errorf("leaves %v, M %v, %s: worst %v ≤ W = %v without an equal split", c.a, c.M, m, r.Worst, W)
 			}
 			t.Logf("leaves %v, M %v, %s: worst %v, W %v (%s)", c.a, c.M, m, r.Worst, W, p.Note)
+		}
+	}
+}
+
+// TestPlannersDeterministic: the same site gives the same plan, run after
+// run (no map order or unseeded randomness reaches a result).
+func TestPlannersDeterministic(t *testing.T) {
+	for i := 0; i < 150; i++ {
+		s, err := engine.NewSite(treeScenario(i))
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, info := range engine.Planners() {
+			if info.Search {
+				continue
+			}
+			for _, m := range info.Models {
+				p1, err1 := engine.MakePlan(context.Background(), s, info.Name, m, engine.Options{})
+				p2, err2 := engine.MakePlan(context.Background(), s, info.Name, m, engine.Options{})
+				if err1 != nil || err2 != nil {
+					t.Fatalf("tree %d %s: %v %v", i, info.Name, err1, err2)
+				}
+				if !reflect.DeepEqual(p1, p2) {
+					t.Errorf("tree %d: %s (%s) gave two different plans", i, info.Name, m)
+				}
+			}
 		}
 	}
 }

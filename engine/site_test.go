@@ -88,6 +88,9 @@ func TestNewSiteRefusals(t *testing.T) {
 			sc.Nodes[1].Probability, sc.Nodes[1].HasProbability = 1, true
 		}, "nodes[1].probability", "1"},
 		{"no nodes", func(sc *engine.Scenario) { sc.Nodes, sc.Corridors = nil, nil }, "nodes", ""},
+		{"one agent", func(sc *engine.Scenario) { sc.Agents = []engine.Agent{{Name: "A", Speed: 1}} }, "agents", "1"},
+		{"NaN x", func(sc *engine.Scenario) { sc.Nodes[1].X, sc.Nodes[1].Y, sc.Nodes[1].HasXY = math.NaN(), 2, true }, "nodes[1].x", "NaN,2"},
+		{"Inf y", func(sc *engine.Scenario) { sc.Nodes[2].X, sc.Nodes[2].Y, sc.Nodes[2].HasXY = 1, math.Inf(-1), true }, "nodes[2].x", "1,-Inf"},
 	}
 	for _, c := range cases {
 		sc := small()
