@@ -47,6 +47,16 @@ func evalBoth(t *testing.T, s *engine.Site, p *engine.Plan) (*engine.Report, *en
 	if err != nil {
 		t.Fatalf("Evaluate face-to-face: %v", err)
 	}
+	// the reference evaluator must agree on every hand example as well, so
+	// the hand derivations check it too
+	rt := newRefTree(s.Scenario)
+	for _, rep := range []*engine.Report{r, f} {
+		want, err := rt.evaluate(p, rep.Model)
+		if err != nil {
+			t.Fatalf("reference: %v", err)
+		}
+		compareReports(t, "hand example vs reference, "+rep.Model.String(), rt, rep, want)
+	}
 	return r, f
 }
 
