@@ -189,6 +189,18 @@ func TestProperties(t *testing.T) {
 					ratios[k].ratio, ratios[k].tree = r, tr.name
 				}
 			}
+			// a search planner starts from (or includes) the published plans:
+			// it is never worse than the best available plan
+			if searchPlanner(pp.name) {
+				_, best, err := engine.BestPlan(context.Background(), s, pp.model)
+				if err != nil {
+					t.Fatal(err)
+				}
+				if rep.Worst > best.Worst*(1+1e-9) {
+					t.Errorf("%s: search planner worst %v is worse than BestPlan's %s %v", label, rep.Worst, best.Planner, best.Worst)
+					failures++
+				}
+			}
 			for _, g := range guarantees {
 				if g.planner != pp.name || g.model != pp.model {
 					continue
@@ -224,6 +236,15 @@ func TestProperties(t *testing.T) {
 			t.Errorf("DUOSWEEP_RATIOS: %v", err)
 		}
 	}
+}
+
+func searchPlanner(name string) bool {
+	for _, p := range engine.Planners() {
+		if p.Name == name {
+			return p.Search
+		}
+	}
+	return false
 }
 
 // TestGuaranteedPlannersRegistered fails once every planner of MODEL.md §6
