@@ -101,17 +101,21 @@ func At(v int) Point { return Point{From: v, To: -1} }
 // IsNode reports whether p is a node (also a corridor point at offset 0 or at full length).
 func (p Point) IsNode() bool { return p.To < 0 }
 
-// Canon returns p in canonical form: a node when it sits at a corridor end,
+// Canon returns p in canonical form: a node when it sits at a corridor end
+// (within a relative 1e-9 of the corridor length),
 // else oriented from the lower node index, so equal points compare equal.
 func (s *Site) Canon(p Point) Point {
 	if p.To < 0 {
 		return Point{From: p.From, To: -1}
 	}
 	w := s.EW[s.Edge(p.From, p.To)]
-	if p.Offset <= 0 {
+	// a point within a relative 1e-9 of a corridor end is that end: rounding
+	// must not make a walk stop a hair short of a node it means to visit
+	snap := 1e-9 * math.Max(1, w)
+	if p.Offset <= snap {
 		return At(p.From)
 	}
-	if p.Offset >= w {
+	if p.Offset >= w-snap {
 		return At(p.To)
 	}
 	if p.From > p.To {

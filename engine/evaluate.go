@@ -110,20 +110,45 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 	r.RouteLengths = [2]float64{trs[0].Length, trs[1].Length}
 	fv := [2][]float64{trs[0].FirstVisits(), trs[1].FirstVisits()}
 	for v := 0; v < s.N; v++ {
-		if !s.Candidate[v] {
-			continue
+		if s.Candidate[v] {
+			r.Exits = append(r.Exits, exitResult(s, trs, fv, v, m))
 		}
-		ex := exitResult(s, trs, fv, v, m)
+	}
+	if m == FaceToFace {
+		// Intercepts, per finder in order of discovery: consecutive discoveries
+		// tend to meet the partner at nearby moments, so each search starts
+		// from the previous answer (an exponential search around it).
+		for f := 0; f < 2; f++ {
+			var idx []int
+			for i := range r.Exits {
+				if r.Exits[i].Finder == f {
+					idx = append(idx, i)
+				}
+			}
+			sort.Slice(idx, func(a, b int) bool {
+				ea, eb := &r.Exits[idx[a]], &r.Exits[idx[b]]
+				if ea.FoundAt != eb.FoundAt {
+					return ea.FoundAt < eb.FoundAt
+				}
+				return ea.Node < eb.Node
+			})
+			hint := 0
+			for _, i := range idx {
+				ex := &r.Exits[i]
+				ex.MeetAt, ex.MeetPoint, ex.EvacAt = intercept(s, trs[1-f], ex.Node, ex.FoundAt, s.Speed[f], s.Speed[1-f], &hint)
+			}
+		}
+	}
+	for _, ex := range r.Exits {
 		if ex.Finder == Nobody {
 			r.Complete = false
-			r.Unvisited = append(r.Unvisited, v)
+			r.Unvisited = append(r.Unvisited, ex.Node)
 		}
 		if r.WorstExit < 0 || ex.EvacAt > r.Worst {
-			r.Worst, r.WorstExit = ex.EvacAt, v
+			r.Worst, r.WorstExit = ex.EvacAt, ex.Node
 		}
-		r.Exits = append(r.Exits, ex)
-		if s.HasProb && s.Prob[v] > 0 {
-			r.Expected += s.Prob[v] * ex.EvacAt
+		if s.HasProb && s.Prob[ex.Node] > 0 {
+			r.Expected += s.Prob[ex.Node] * ex.EvacAt
 		}
 	}
 	r.HasExpected = s.HasProb
@@ -133,6 +158,20 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 	return r
 }
 
+// exitFull is exitResult with the face-to-face intercept included.
+func exitFull(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) ExitResult {
+	ex := exitResult(s, trs, fv, x, m)
+	if m == FaceToFace && (ex.Finder == 0 || ex.Finder == 1) {
+		hint := 0
+		f := ex.Finder
+		ex.MeetAt, ex.MeetPoint, ex.EvacAt = intercept(s, trs[1-f], x, ex.FoundAt, s.Speed[f], s.Speed[1-f], &hint)
+	}
+	return ex
+}
+
+// exitResult finds t(x) and the finder, and under Radio the evacuation time.
+// Face to face, the intercept is left to the caller (EvacAt stays +Inf for
+// a single finder).
 func exitResult(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) ExitResult {
 	t0, t1 := fv[0][x], fv[1][x]
 	t := math.Min(t0, t1)
@@ -159,7 +198,6 @@ func exitResult(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) Ex
 		ex.MeetPoint = At(x)
 		return ex
 	}
-	ex.MeetAt, ex.MeetPoint, ex.EvacAt = intercept(s, partner, x, t, s.Speed[f], s.Speed[1-f])
 	return ex
 }
 
@@ -167,7 +205,10 @@ func exitResult(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) Ex
 // and an uninformed partner on trajectory tr with speed sp: the meeting time
 // τ, the meeting point and the evacuation time min τ + d(π(τ),x)/min(sf,sp)
 // over τ ≥ t with d(x, π(τ)) ≤ sf·(τ − t).
-func intercept(s *Site, tr *Trajectory, x int, t, sf, sp float64) (float64, Point, float64) {
+//
+// hint is the segment index where the previous search ended; it only steers
+// the search (an exponential search around it), never the result.
+func intercept(s *Site, tr *Trajectory, x int, t, sf, sp float64, hint *int) (float64, Point, float64) {
 	slow := math.Min(sf, sp)
 	// the partner's trajectory for this exit: segments up to the first
 	// rendezvous at or after t, then stationary there.
@@ -225,16 +266,20 @@ func intercept(s *Site, tr *Trajectory, x int, t, sf, sp float64) (float64, Poin
 		// feasibility never decreases and the objective never decreases on
 		// the feasible part: the earliest feasible τ is optimal. Binary search
 		// the first segment whose end is feasible.
-		h := func(i int) float64 {
+		feasible := func(i int) bool {
 			g := &segs[i]
+			var d float64
 			if g.N1 >= 0 {
-				return sf*(g.T1-t) - s.Dist(int(g.N1), x)
+				d = s.Dist(int(g.N1), x)
+			} else {
+				d = s.NodeDist(s.segPoint(g, g.T1), x)
 			}
-			return sf*(g.T1-t) - s.NodeDist(s.segPoint(g, g.T1), x)
+			return sf*(g.T1-t)-d >= -1e-9*math.Max(1, g.T1)
 		}
-		j := i0 + sort.Search(len(segs)-i0, func(k int) bool { return h(i0+k) >= -1e-9*math.Max(1, segs[i0+k].T1) })
+		j := firstTrue(i0, len(segs), *hint, feasible)
 		if j < len(segs) {
 			trySeg(&segs[j])
+			*hint = j
 		}
 	} else {
 		for i := i0; i < len(segs); i++ {
@@ -245,4 +290,50 @@ func intercept(s *Site, tr *Trajectory, x int, t, sf, sp float64) (float64, Poin
 		}
 	}
 	return bestT, bestP, bestE
+}
+
+// firstTrue returns the first index in [lo, hi) where the monotone predicate
+// (false...false true...true) holds, or hi. It searches exponentially outwards
+// from hint, then by bisection: O(log |answer − hint|) calls.
+func firstTrue(lo, hi, hint int, pred func(int) bool) int {
+	if lo >= hi {
+		return hi
+	}
+	hint = max(lo, min(hint, hi-1))
+	var a, b int // the answer lies in (a, b]: pred(b) true or b == hi; a < lo or pred(a) false
+	if pred(hint) {
+		b = hint
+		step := 1
+		a = hint - step
+		for a >= lo && pred(a) {
+			b = a
+			step *= 2
+			a = b - step
+		}
+		if a < lo {
+			a = lo - 1
+		}
+	} else {
+		a = hint
+		step := 1
+		b = hint + step
+		for b < hi && !pred(b) {
+			a = b
+			step *= 2
+			b = a + step
+		}
+		if b >= hi {
+			b = hi
+		}
+	}
+	// invariant: a is false (or below lo), b is true (or hi)
+	for b-a > 1 {
+		m := a + (b-a)/2
+		if pred(m) {
+			b = m
+		} else {
+			a = m
+		}
+	}
+	return b
 }

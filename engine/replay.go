@@ -70,7 +70,7 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 		return nil, err
 	}
 	fv := [2][]float64{trs[0].FirstVisits(), trs[1].FirstVisits()}
-	ex := exitResult(s, trs, fv, exit, m)
+	ex := exitFull(s, trs, fv, exit, m)
 	rp := &Replay{Exit: exit, Model: m, Result: ex, End: ex.EvacAt}
 	if ex.Finder == Nobody {
 		rp.full = trs
