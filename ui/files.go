@@ -195,6 +195,9 @@ func (a *App) suggestedName(suffix string) string {
 			}
 			return '-'
 		}, base)
+		for strings.Contains(base, "--") {
+			base = strings.ReplaceAll(base, "--", "-")
+		}
 		base = strings.Trim(base, "-")
 	}
 	if base == "" {

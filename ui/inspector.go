@@ -23,7 +23,7 @@ func (a *App) inspectorPanel() fyne.CanvasObject {
 	a.w.inspectorErr.Wrapping = fyne.TextWrapWord
 	a.w.inspectorErr.Importance = widget.DangerImportance
 	a.w.inspectorErr.Hide()
-	return container.NewVScroll(container.NewVBox(a.w.inspector, a.w.inspectorErr))
+	return container.NewVScroll(container.NewVBox(a.w.inspectorErr, a.w.inspector))
 }
 
 // refreshInspector rebuilds the inspector for the current selection and scenario.
