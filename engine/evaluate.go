@@ -108,34 +108,40 @@ func EvaluateBoth(s *Site, p *Plan) (radio, f2f *Report, err error) {
 func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) *Report {
 	r := &Report{Model: m, Planner: planner, WorstExit: -1, Complete: true, Bounds: ComputeBounds(s)}
 	r.RouteLengths = [2]float64{trs[0].Length, trs[1].Length}
-	fv := [2][]float64{trs[0].FirstVisits(), trs[1].FirstVisits()}
+	var fv [2][]float64
+	var order [2][]int32
+	fv[0], order[0] = trs[0].firstVisits()
+	fv[1], order[1] = trs[1].firstVisits()
+	row := make([]int32, s.N) // node -> index in r.Exits
 	for v := 0; v < s.N; v++ {
 		if s.Candidate[v] {
+			row[v] = int32(len(r.Exits))
 			r.Exits = append(r.Exits, exitResult(s, trs, fv, v, m))
 		}
 	}
-	if m == FaceToFace {
-		// Intercepts, per finder in order of discovery: consecutive discoveries
-		// tend to meet the partner at nearby moments, so each search starts
-		// from the previous answer (an exponential search around it).
-		for f := 0; f < 2; f++ {
-			var idx []int
-			for i := range r.Exits {
-				if r.Exits[i].Finder == f {
-					idx = append(idx, i)
-				}
+	// Per finder, in order of discovery: under radio the partner's position
+	// is found by one forward sweep over its segments; face to face,
+	// consecutive discoveries tend to meet the partner at nearby moments, so
+	// each intercept search starts from the previous answer.
+	for f := 0; f < 2; f++ {
+		partner, sf, sp := trs[1-f], s.Speed[f], s.Speed[1-f]
+		hint := 0
+		// the finder's first visits come in time order: no sort needed
+		for _, v := range order[f] {
+			if !s.Candidate[v] {
+				continue
 			}
-			sort.Slice(idx, func(a, b int) bool {
-				ea, eb := &r.Exits[idx[a]], &r.Exits[idx[b]]
-				if ea.FoundAt != eb.FoundAt {
-					return ea.FoundAt < eb.FoundAt
-				}
-				return ea.Node < eb.Node
-			})
-			hint := 0
-			for _, i := range idx {
-				ex := &r.Exits[i]
-				ex.MeetAt, ex.MeetPoint, ex.EvacAt = intercept(s, trs[1-f], ex.Node, ex.FoundAt, s.Speed[f], s.Speed[1-f], &hint)
+			ex := &r.Exits[row[v]]
+			if ex.Finder != f {
+				continue
+			}
+			if m == Radio {
+				var pos Point
+				pos, hint = partner.positionFrom(ex.FoundAt, hint)
+				ex.EvacAt = ex.FoundAt + s.NodeDist(pos, ex.Node)/sp
+				ex.MeetAt = ex.FoundAt
+			} else {
+				ex.MeetAt, ex.MeetPoint, ex.EvacAt = intercept(s, partner, ex.Node, ex.FoundAt, sf, sp, &hint)
 			}
 		}
 	}
@@ -158,20 +164,25 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 	return r
 }
 
-// exitFull is exitResult with the face-to-face intercept included.
+// exitFull is exitResult with the evacuation time worked out.
 func exitFull(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) ExitResult {
 	ex := exitResult(s, trs, fv, x, m)
-	if m == FaceToFace && (ex.Finder == 0 || ex.Finder == 1) {
-		hint := 0
-		f := ex.Finder
-		ex.MeetAt, ex.MeetPoint, ex.EvacAt = intercept(s, trs[1-f], x, ex.FoundAt, s.Speed[f], s.Speed[1-f], &hint)
+	if ex.Finder != 0 && ex.Finder != 1 {
+		return ex
+	}
+	f, t := ex.Finder, ex.FoundAt
+	hint := 0
+	if m == Radio {
+		pos := trs[1-f].PositionAt(t)
+		ex.EvacAt, ex.MeetAt = t+s.NodeDist(pos, x)/s.Speed[1-f], t
+	} else {
+		ex.MeetAt, ex.MeetPoint, ex.EvacAt = intercept(s, trs[1-f], x, t, s.Speed[f], s.Speed[1-f], &hint)
 	}
 	return ex
 }
 
-// exitResult finds t(x) and the finder, and under Radio the evacuation time.
-// Face to face, the intercept is left to the caller (EvacAt stays +Inf for
-// a single finder).
+// exitResult finds t(x) and the finder; for a single finder the evacuation
+// time is left to the caller (EvacAt stays +Inf).
 func exitResult(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) ExitResult {
 	t0, t1 := fv[0][x], fv[1][x]
 	t := math.Min(t0, t1)
@@ -188,15 +199,6 @@ func exitResult(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) Ex
 		ex.Finder = 0
 	default:
 		ex.Finder = 1
-	}
-	f := ex.Finder
-	partner := trs[1-f]
-	if m == Radio {
-		d := s.NodeDist(partner.PositionAt(t), x)
-		ex.EvacAt = t + d/s.Speed[1-f]
-		ex.MeetAt = t
-		ex.MeetPoint = At(x)
-		return ex
 	}
 	return ex
 }

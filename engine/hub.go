@@ -478,8 +478,8 @@ func (it *hubItems) split(target float64) []bool {
 
 // hubLargeSite is the node count above which only one order of the leftover
 // parts and one moved hub are tried (4 exact evaluations instead of 11 on
-// very large sites).
-const hubLargeSite = 100_000
+// large sites); the same threshold as the other published planners.
+const hubLargeSite = LargeSite
 
 // hubVariant is one candidate plan with a short tag naming how it was made.
 type hubVariant struct {

@@ -72,7 +72,7 @@ func tol(t float64) float64 { return timeTol * math.Max(1, math.Abs(t)) }
 // not go down and never ask for more than full speed. O(waypoints · log n +
 // total path length).
 func (s *Site) Trajectory(r Route, a int) (*Trajectory, error) {
-	tr := &Trajectory{site: s, Agent: a, start: At(s.Start)}
+	tr := &Trajectory{site: s, Agent: a, start: At(s.Start), Segs: make([]Seg, 0, 2*len(r.Waypoints)+1)}
 	speed := s.Speed[a]
 	cur := At(s.Start)
 	t := 0.0
@@ -291,6 +291,23 @@ func (tr *Trajectory) PositionAt(t float64) Point {
 	return tr.site.segPoint(&tr.Segs[i], t)
 }
 
+// positionFrom is PositionAt for a caller whose times never go down: hint is
+// the segment index the previous call returned. Amortised O(1) per call.
+func (tr *Trajectory) positionFrom(t float64, hint int) (Point, int) {
+	n := len(tr.Segs)
+	if n == 0 || t <= tr.Segs[0].T0 {
+		return tr.PositionAt(t), 0
+	}
+	j := hint
+	for j < n && tr.Segs[j].T1 < t {
+		j++
+	}
+	if j == n {
+		return tr.FinalPoint(), n
+	}
+	return tr.site.segPoint(&tr.Segs[j], t), j
+}
+
 // FinalPoint returns where the agent stays after its last waypoint.
 func (tr *Trajectory) FinalPoint() Point {
 	if len(tr.Segs) == 0 {
@@ -303,37 +320,35 @@ func (tr *Trajectory) FinalPoint() Point {
 // FirstVisits returns, for every node, the first time the agent stands on it
 // (passing through counts), +Inf for nodes never reached. O(segments + n).
 func (tr *Trajectory) FirstVisits() []float64 {
+	fv, _ := tr.firstVisits()
+	return fv
+}
+
+// firstVisits returns the first-visit times and the nodes in the order the
+// agent first reaches them (the start first).
+func (tr *Trajectory) firstVisits() ([]float64, []int32) {
 	s := tr.site
 	fv := make([]float64, s.N)
 	for i := range fv {
 		fv[i] = math.Inf(1)
 	}
+	order := make([]int32, 0, 64)
 	fv[s.Start] = 0
-	see := func(v int, t float64) {
-		if t < fv[v] {
+	order = append(order, int32(s.Start))
+	see := func(v int32, t float64) {
+		if v >= 0 && t < fv[v] {
+			if math.IsInf(fv[v], 1) {
+				order = append(order, v)
+			}
 			fv[v] = t
 		}
 	}
 	for i := range tr.Segs {
 		g := &tr.Segs[i]
-		if g.E < 0 {
-			see(int(g.Node), g.T0)
-			continue
-		}
-		e := int(g.E)
-		w := s.EW[e]
-		if g.O0 == 0 {
-			see(int(s.EU[e]), g.T0)
-		} else if g.O0 == w {
-			see(int(s.EV[e]), g.T0)
-		}
-		if g.O1 == 0 {
-			see(int(s.EU[e]), g.T1)
-		} else if g.O1 == w {
-			see(int(s.EV[e]), g.T1)
-		}
+		see(g.N0, g.T0)
+		see(g.N1, g.T1)
 	}
-	return fv
+	return fv, order
 }
 
 // Trajectories expands both routes of a plan.

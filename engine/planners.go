@@ -119,7 +119,8 @@ func MakePlan(ctx context.Context, s *Site, name string, m Model, opt Options) (
 // order of Planners), with its report. Since any plan can be evaluated under
 // either model, plans made for the other model compete too (a radio plan
 // can be the best face-to-face plan: Plan.Model says what it was made for).
-// This is the "best available" default. A planner that fails is skipped;
+// This is the "best available" default. Above LargeSite nodes only plans
+// made for m compete. A planner that fails is skipped;
 // BestPlan fails only when every planner does (or ctx is done).
 func BestPlan(ctx context.Context, s *Site, m Model) (*Plan, *Report, error) {
 	var bestP *Plan
@@ -129,8 +130,13 @@ func BestPlan(ctx context.Context, s *Site, m Model) (*Plan, *Report, error) {
 		if info.Search {
 			continue
 		}
-		// plans made for m first, so that they win ties
-		for _, made := range []Model{m, 1 - m} {
+		// plans made for m first, so that they win ties; on large sites
+		// only those, to keep planning near-linear
+		made := []Model{m, 1 - m}
+		if s.N > LargeSite {
+			made = made[:1]
+		}
+		for _, made := range made {
 			if !info.Supports(made) {
 				continue
 			}
