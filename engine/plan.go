@@ -28,7 +28,7 @@ type Plan struct {
 	Planner string // the planner that made it, "" for a hand-made plan
 	Model   Model  // the model it was made for
 	Routes  [2]Route
-	Note    string // what the planner chose, in a sentence
+	Note    string  // what the planner chose, in a sentence
 	cached  *Report // the planner's own evaluation under Model, if any
 }
 
