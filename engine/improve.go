@@ -123,6 +123,9 @@ func ImproveFrom(ctx context.Context, s *Site, m Model, start *Plan, opt Options
 	im := newImprover(s, m, opt.Seed)
 	bestP, bestR := clonePlan(start), r0
 	cur := im.fromPlan(start)
+	for a := 0; a < 2; a++ {
+		im.maxItems = max(im.maxItems, len(cur.list[a])+8)
+	}
 	curP := im.toPlan(cur)
 	curR, err := Evaluate(s, curP, m)
 	res.Evaluations++
@@ -220,7 +223,32 @@ func ImproveFrom(ctx context.Context, s *Site, m Model, start *Plan, opt Options
 			sinceBest = 0
 		}
 	}
+	if bestR != r0 && ctx.Err() == nil {
+		bestP, bestR = im.tidy(best, bestP, bestR, &res)
+	}
 	return im.finish(start, bestP, bestR, r0, res, t0), im.lastRes(res, bestR, t0), nil
+}
+
+// tidy drops items from the end of the lists (at most 100 tries per list)
+// while the plan gets no worse: local search leaves detours that no exit
+// needs, and a shorter plan is easier to follow.
+func (im *improver) tidy(st *imState, p *Plan, r *Report, res *ImproveResult) (*Plan, *Report) {
+	for a := 0; a < 2; a++ {
+		tries := 0
+		for i := len(st.list[a]) - 1; i >= 0 && tries < 100; i-- {
+			if st.list[a][i].Meet {
+				continue
+			}
+			tries++
+			c := st.clone()
+			c.list[a] = append(c.list[a][:i:i], c.list[a][i+1:]...)
+			cr, ok := im.eval(c, res)
+			if ok && !better(r, cr) && cr.Worst <= r.Worst {
+				st, p, r = c, im.toPlan(c), cr
+			}
+		}
+	}
+	return p, r
 }
 
 func (im *improver) lastRes(res ImproveResult, bestR *Report, t0 time.Time) ImproveResult {
@@ -247,8 +275,9 @@ type improver struct {
 	m       Model
 	rng     *rand.Rand
 	seed    int64
-	anchors []int // start, candidates, branch nodes of the search tree
-	cand    []int
+	anchors  []int // start, candidates, branch nodes of the search tree
+	cand     []int
+	maxItems int // longest list a move may make
 }
 
 func newImprover(s *Site, m Model, seed int64) *improver {
@@ -273,6 +302,7 @@ func newImprover(s *Site, m Model, seed int64) *improver {
 			im.cand = append(im.cand, v)
 		}
 	}
+	im.maxItems = 2*len(im.anchors) + 8
 	return im
 }
 
@@ -286,7 +316,8 @@ func (im *improver) score(r *Report) float64 {
 	for _, e := range r.Exits {
 		sum += e.EvacAt
 	}
-	return r.Worst + 0.02*sum/float64(len(r.Exits))
+	// a tiny charge on route length keeps detours that no exit needs from piling up
+	return r.Worst + 0.02*sum/float64(len(r.Exits)) + 1e-4*(r.RouteLengths[0]/im.s.Speed[0]+r.RouteLengths[1]/im.s.Speed[1])
 }
 
 func (im *improver) eval(st *imState, res *ImproveResult) (*Report, bool) {
@@ -378,6 +409,8 @@ func (im *improver) toPlan(st *imState) *Plan {
 	var idx [2]int
 	var wps [2][]Waypoint
 	cur[0], cur[1] = At(s.Start), At(s.Start)
+	wps[0] = make([]Waypoint, 0, len(st.list[0]))
+	wps[1] = make([]Waypoint, 0, len(st.list[1]))
 	for k := 0; ; k++ {
 		// walk each agent up to its next meeting (or the end)
 		for a := 0; a < 2; a++ {
@@ -680,6 +713,9 @@ func (im *improver) mutate(st *imState, r *Report) *imState {
 		c.meet = append(c.meet[:ka:ka], append([]Point{R}, c.meet[ka:]...)...)
 	}
 	if meetCount(c.list[0]) != len(c.meet) || meetCount(c.list[1]) != len(c.meet) {
+		return nil
+	}
+	if len(c.list[0]) > im.maxItems || len(c.list[1]) > im.maxItems {
 		return nil
 	}
 	return c
