@@ -271,10 +271,10 @@ func (im *improver) finish(start, bestP *Plan, bestR, r0 *Report, res ImproveRes
 }
 
 type improver struct {
-	s       *Site
-	m       Model
-	rng     *rand.Rand
-	seed    int64
+	s        *Site
+	m        Model
+	rng      *rand.Rand
+	seed     int64
 	anchors  []int // start, candidates, branch nodes of the search tree
 	cand     []int
 	maxItems int // longest list a move may make
