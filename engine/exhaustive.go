@@ -312,7 +312,7 @@ func exhaustive(ctx context.Context, s *Site, m Model, opt Options, cfg exConfig
 	case !res.Proven:
 		p.Note = fmt.Sprintf("NOT proven: the search was stopped (%s) after %d states; best plan found so far, worst %.6g (lower bound %.6g)", x.stopWhy, x.states, x.inc, bound)
 		if x.incFrom != "exhaustive" {
-			p.Note += fmt.Sprintf("; it is the %s plan (%s)", x.incFrom, seed.Note)
+			p.Note += fmt.Sprintf("; it is the %s plan (%s)", x.incFrom, x.incPlan.Note)
 		}
 	case x.incFrom == "exhaustive":
 		p.Note = fmt.Sprintf("best of class %q: no plan of the class has a smaller worst case (search finished, %d states); worst %.6g, lower bound %.6g", res.Class, x.states, x.inc, bound)

@@ -225,3 +225,122 @@ func TestSearchPlannersOnSmallTrees(t *testing.T) {
 	t.Logf("improve (%d iterations, seed 1) reached the exhaustive value on %d of %d runs (%.1f%%); on %d runs no plan of the class beat improve's plan", iters, hit, total, 100*share, outside)
 	require.GreaterOrEqual(t, share, 0.9)
 }
+
+// A cancelled context stops both search planners promptly: exhaustive
+// returns its best plan so far marked NOT proven, improve its best plan (never
+// worse than the start); an already cancelled context is an error.
+func TestSearchCancellation(t *testing.T) {
+	// a binary tree of 15 nodes with uneven corridors: seconds of face-to-face search
+	sc := Scenario{Name: "binary", Start: "b0", Nodes: []Node{{ID: "b0"}}}
+	for i := 1; i < 15; i++ {
+		sc.Nodes = append(sc.Nodes, Node{ID: fmt.Sprintf("b%d", i), Candidate: true})
+		sc.Corridors = append(sc.Corridors, Corridor{From: fmt.Sprintf("b%d", (i-1)/2), To: fmt.Sprintf("b%d", i), Length: float64(1 + (7*i)%9)})
+	}
+	s := mustSite(t, sc)
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	_, _, err := Exhaustive(ctx, s, FaceToFace, Options{})
+	require.ErrorIs(t, err, context.Canceled)
+	_, _, err = Improve(ctx, s, FaceToFace, Options{})
+	require.ErrorIs(t, err, context.Canceled)
+
+	for _, m := range Models {
+		ctx, cancel := context.WithTimeout(context.Background(), 100*time.Millisecond)
+		t0 := time.Now()
+		p, res, err := Exhaustive(ctx, s, m, Options{Budget: time.Hour})
+		cancel()
+		require.NoError(t, err)
+		t.Logf("%s: proven %v after %v: %s", m, res.Proven, time.Since(t0), p.Note)
+		if !res.Proven {
+			require.Contains(t, p.Note, "NOT proven")
+			require.Contains(t, p.Note, "cancelled")
+		}
+		require.Less(t, time.Since(t0), 20*time.Second, "exhaustive ignored the cancellation")
+		if m == FaceToFace {
+			require.False(t, res.Proven, "face to face on this tree takes far longer than 100 ms")
+		}
+		worstOf(t, s, p, m)
+
+		ctx, cancel = context.WithTimeout(context.Background(), 200*time.Millisecond)
+		t0 = time.Now()
+		pi, ir, err := Improve(ctx, s, m, Options{Budget: time.Hour})
+		cancel()
+		require.NoError(t, err)
+		require.Less(t, time.Since(t0), 20*time.Second, "improve ignored the cancellation")
+		require.LessOrEqual(t, worstOf(t, s, pi, m), ir.Start*(1+1e-12))
+	}
+}
+
+// The time limit stops exhaustive with its best plan so far, marked NOT proven.
+func TestExhaustiveTimeLimit(t *testing.T) {
+	s := mustSite(t, star(3, 1, 4, 1, 5, 9, 2, 6, 5, 3, 5, 8, 9, 7, 9))
+	p, res, err := Exhaustive(context.Background(), s, FaceToFace, Options{Budget: time.Millisecond})
+	require.NoError(t, err)
+	require.False(t, res.Proven)
+	require.Contains(t, p.Note, "NOT proven")
+	require.Contains(t, p.Note, "time limit")
+	worstOf(t, s, p, FaceToFace)
+}
+
+// Sites over the limits are refused up front with an error naming the limit.
+func TestExhaustiveRefusesLargeSites(t *testing.T) {
+	legs := make([]float64, ExhaustiveMaxCandidates+1)
+	for i := range legs {
+		legs[i] = float64(1 + i%3)
+	}
+	s := mustSite(t, star(legs...))
+	_, err := MakePlan(context.Background(), s, "exhaustive", Radio, Options{})
+	require.ErrorIs(t, err, ErrSiteTooLarge)
+	require.Contains(t, err.Error(), fmt.Sprintf("%d candidates, the limit is %d", ExhaustiveMaxCandidates+1, ExhaustiveMaxCandidates))
+
+	// a long path with candidates only near its end: few candidates, many search-tree nodes
+	sc := Scenario{Name: "long path", Start: "p0", Nodes: []Node{{ID: "p0"}}}
+	for i := 1; i <= ExhaustiveMaxNodes; i++ {
+		sc.Nodes = append(sc.Nodes, Node{ID: fmt.Sprintf("p%d", i), Candidate: i > ExhaustiveMaxNodes-3})
+		sc.Corridors = append(sc.Corridors, Corridor{From: fmt.Sprintf("p%d", i-1), To: fmt.Sprintf("p%d", i), Length: 1})
+	}
+	s = mustSite(t, sc)
+	_, err = MakePlan(context.Background(), s, "exhaustive", FaceToFace, Options{})
+	require.ErrorIs(t, err, ErrSiteTooLarge)
+	require.Contains(t, err.Error(), fmt.Sprintf("%d nodes in the search tree, the limit is %d", ExhaustiveMaxNodes+1, ExhaustiveMaxNodes))
+}
+
+// improve is deterministic for a seed and an iteration count, and never
+// worse than the best published plan, on larger sites too.
+func TestImproveDeterministicAndNeverWorse(t *testing.T) {
+	n := 12
+	if testing.Short() {
+		n = 4
+	}
+	for i := 0; i < n; i++ {
+		s := mustSite(t, searchTree(uint64(9000+i), 20+7*i))
+		for _, m := range Models {
+			_, br, err := BestPlan(context.Background(), s, m)
+			require.NoError(t, err)
+			opt := Options{Iterations: 400, Seed: int64(i)}
+			p1, r1, err := Improve(context.Background(), s, m, opt)
+			require.NoError(t, err)
+			p2, _, err := Improve(context.Background(), s, m, opt)
+			require.NoError(t, err)
+			require.Equal(t, p1.Routes, p2.Routes, "tree %d %s: same seed and iterations, different plans", i, m)
+			require.Equal(t, br.Worst, r1.Start)
+			require.LessOrEqual(t, worstOf(t, s, p1, m), br.Worst*(1+1e-12), "tree %d %s", i, m)
+		}
+	}
+}
+
+// Progress reports come at most about ten times a second.
+func TestSearchProgress(t *testing.T) {
+	s := mustSite(t, searchTree(4242, 60))
+	var reps []Progress
+	start := time.Now()
+	_, _, err := Improve(context.Background(), s, FaceToFace, Options{Budget: 600 * time.Millisecond, Progress: func(p Progress) { reps = append(reps, p) }})
+	require.NoError(t, err)
+	el := time.Since(start)
+	require.NotEmpty(t, reps)
+	require.LessOrEqual(t, len(reps), int(el/(100*time.Millisecond))+2)
+	for _, r := range reps {
+		require.True(t, r.Done >= 0 && r.Done <= 1)
+		require.Contains(t, r.Note, "improve")
+	}
+}
