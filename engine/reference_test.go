@@ -647,7 +647,7 @@ type plannedPlan struct {
 }
 
 // plannerPlans runs every registered planner on the site for every model it
-// supports. Search planners run only on small trees (≤ 9 nodes, every 5th
+// supports. Search planners run only on small trees (≤ 9 nodes, every 10th
 // tree) with a small budget.
 func plannerPlans(t *testing.T, i int, s *engine.Site) []plannedPlan {
 	t.Helper()
@@ -655,10 +655,10 @@ func plannerPlans(t *testing.T, i int, s *engine.Site) []plannedPlan {
 	for _, info := range engine.Planners() {
 		opt := engine.Options{Seed: int64(i)}
 		if info.Search {
-			if s.N > 9 || i%5 != 0 {
+			if s.N > 9 || i%10 != 0 {
 				continue
 			}
-			opt.Budget, opt.Iterations = 30*time.Millisecond, 200
+			opt.Budget, opt.Iterations = 20*time.Millisecond, 150
 		}
 		for _, m := range info.Models {
 			p, err := engine.MakePlan(context.Background(), s, info.Name, m, opt)
