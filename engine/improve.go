@@ -456,11 +456,84 @@ func (im *improver) mutate(st *imState, r *Report) *imState {
 	c := st.clone()
 	a := rng.IntN(2)
 	l := c.list[a]
-	nMoves := 10
+	moves := imMovesRadio
 	if im.m == FaceToFace {
-		nMoves = 16
+		moves = imMovesF2F
 	}
-	switch mv := rng.IntN(nMoves); mv {
+	switch mv := moves[rng.IntN(len(moves))]; mv {
+	case 16: // hand the last one to three items to the partner (the boundary of a split)
+		b := 1 - a
+		k := 1 + rng.IntN(3)
+		end := len(l)
+		for end > 0 && l[end-1].Meet {
+			end--
+		}
+		if end-k < 0 || meetCount(l[end-k:end]) > 0 || end-k < meetCountBefore(l, end) {
+			return nil
+		}
+		block := append([]imItem(nil), l[end-k:end]...)
+		c.list[a] = append(l[:end-k:end-k], l[end:]...)
+		lb := c.list[b]
+		j := len(lb)
+		for j > 0 && lb[j-1].Meet {
+			j--
+		}
+		for x, y := 0, len(block)-1; x < y; x, y = x+1, y-1 {
+			block[x], block[y] = block[y], block[x]
+		}
+		c.list[b] = append(lb[:j:j], append(block, lb[j:]...)...)
+	case 17: // slide a corridor point (a split point) a little
+		var pts []int
+		for k, it := range l {
+			if !it.Meet && !it.P.IsNode() {
+				pts = append(pts, k)
+			}
+		}
+		if len(pts) == 0 {
+			return nil
+		}
+		k := pts[rng.IntN(len(pts))]
+		p := l[k].P
+		w := s.EW[s.Edge(p.From, p.To)]
+		p.Offset = math.Max(0, math.Min(w, p.Offset+(rng.Float64()-0.5)*w*0.06))
+		l[k].P = s.Canon(p)
+	case 18: // swap the blocks of two sibling subtrees (a child order in a tour)
+		if len(l) < 2 {
+			return nil
+		}
+		i := rng.IntN(len(l))
+		if l[i].Meet {
+			return nil
+		}
+		v := l[i].P.From
+		par := int(s.Parent[v])
+		if par < 0 {
+			return nil
+		}
+		in := func(k, root int) bool {
+			return k >= 0 && k < len(l) && !l[k].Meet && im.under(l[k].P.From, root)
+		}
+		i0, i1 := i, i+1
+		for in(i0-1, v) {
+			i0--
+		}
+		for in(i1, v) {
+			i1++
+		}
+		if i1 >= len(l) || l[i1].Meet || !im.under(l[i1].P.From, par) || l[i1].P.From == par {
+			return nil
+		}
+		// the sibling whose subtree holds the next item
+		w := l[i1].P.From
+		for int(s.Parent[w]) != par {
+			w = int(s.Parent[w])
+		}
+		j1 := i1 + 1
+		for in(j1, w) {
+			j1++
+		}
+		blk := append(append([]imItem(nil), l[i1:j1]...), l[i0:i1]...)
+		copy(l[i0:j1], blk)
 	case 0: // swap two items
 		if len(l) < 2 {
 			return nil
@@ -776,4 +849,30 @@ func (im *improver) otherStarts(ctx context.Context, start *Plan) []*imState {
 		out = append(out, im.fromPlan(p))
 	}
 	return out
+}
+
+// The moves each model draws from (face to face adds the rendezvous moves);
+// the tour-structured ones (16–18) are listed twice to draw them more often.
+var (
+	imMovesRadio = []int{0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 16, 16, 17, 17, 18, 18}
+	imMovesF2F   = []int{0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14, 15, 16, 16, 17, 17, 18, 18}
+)
+
+// meetCountBefore returns the position just after the last meeting item before end (0 if none).
+func meetCountBefore(l []imItem, end int) int {
+	for i := end - 1; i >= 0; i-- {
+		if l[i].Meet {
+			return i + 1
+		}
+	}
+	return 0
+}
+
+// under reports whether node x lies in the subtree of v (rooted at the start).
+func (im *improver) under(x, v int) bool {
+	s := im.s
+	if s.Level[x] < s.Level[v] {
+		return false
+	}
+	return s.LCA(x, v) == v
 }
