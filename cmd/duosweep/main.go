@@ -29,7 +29,7 @@ func main() {
 		flag.Usage()
 		os.Exit(2)
 	}
-	a := app.NewWithID("app.duosweep.desktop")
+	a := app.NewWithID("app.duosweep.planner")
 	a.SetIcon(icons.App)
 	w := a.NewWindow("Duosweep")
 	w.Resize(fyne.NewSize(1360, 860))
