@@ -344,3 +344,79 @@ func TestSearchProgress(t *testing.T) {
 		require.Contains(t, r.Note, "improve")
 	}
 }
+
+// benchTree builds an n-node tree of a family with whole corridor lengths
+// 1..100, every node but the start a candidate (the shapes of engine/gen,
+// rebuilt here because an engine test cannot import gen).
+func benchTree(family string, n int, seed uint64) Scenario {
+	r := newTestRand(seed)
+	sc := Scenario{Name: family, Start: "n0", Nodes: []Node{{ID: "n0"}}}
+	legs := int(math.Max(1, math.Round(math.Sqrt(float64(n-1)))))
+	spine := (n + 1) / 2
+	for i := 1; i < n; i++ {
+		var p int
+		switch family {
+		case "binary":
+			p = (i - 1) / 2
+		case "spider":
+			if i <= legs {
+				p = 0
+			} else {
+				p = i - legs
+			}
+		case "caterpillar":
+			if i < spine {
+				p = i - 1
+			} else {
+				p = r.IntN(spine)
+			}
+		default:
+			p = r.IntN(i)
+		}
+		sc.Nodes = append(sc.Nodes, Node{ID: fmt.Sprintf("n%d", i), Candidate: true})
+		sc.Corridors = append(sc.Corridors, Corridor{From: fmt.Sprintf("n%d", p), To: fmt.Sprintf("n%d", i), Length: float64(1 + r.IntN(100))})
+	}
+	return sc
+}
+
+// BenchmarkExhaustive14 measures the time exhaustive needs to prove its class
+// optimum on 14-node sites of each family (the goal: under 10 s each).
+func BenchmarkExhaustive14(b *testing.B) {
+	for _, fam := range []string{"random", "spider", "caterpillar", "binary"} {
+		for _, m := range Models {
+			b.Run(fam+"/"+m.String(), func(b *testing.B) {
+				s := mustSite(b, benchTree(fam, 14, 1))
+				var states int64
+				for b.Loop() {
+					_, res, err := Exhaustive(context.Background(), s, m, Options{Budget: time.Minute})
+					if err != nil || !res.Proven {
+						b.Fatalf("not proven: %v", err)
+					}
+					states = res.States
+				}
+				b.ReportMetric(float64(states), "states/op")
+			})
+		}
+	}
+}
+
+// BenchmarkImproveEvaluations measures improve's exact evaluations per second.
+func BenchmarkImproveEvaluations(b *testing.B) {
+	for _, n := range []int{20, 100, 500} {
+		for _, m := range Models {
+			b.Run(fmt.Sprintf("random%d/%s", n, m), func(b *testing.B) {
+				s := mustSite(b, benchTree("random", n, 1))
+				evals := 0
+				t0 := time.Now()
+				for b.Loop() {
+					_, res, err := Improve(context.Background(), s, m, Options{Iterations: 300, Seed: 1})
+					if err != nil {
+						b.Fatal(err)
+					}
+					evals += res.Evaluations
+				}
+				b.ReportMetric(float64(evals)/time.Since(t0).Seconds(), "evals/s")
+			})
+		}
+	}
+}
