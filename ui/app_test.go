@@ -472,3 +472,62 @@ func TestInspectorRejectsBadInput(t *testing.T) {
 		t.Fatal("probability 1.5 accepted")
 	}
 }
+
+func TestIncompletePlanIsFlagged(t *testing.T) {
+	h := newHarness(t, "")
+	a := h.app
+	s, _ := engine.NewSite(a.editor.Scenario())
+	// a hand-made plan in which nobody moves: every candidate is unvisited
+	idle := &engine.Plan{Planner: "hand-made"}
+	r, err := engine.Evaluate(s, idle, engine.Radio)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Complete {
+		t.Fatal("an idle plan is complete")
+	}
+	a.publish(a.gen, planResult{site: s, plan: idle, report: r})
+	if !a.w.incomplete.Visible() {
+		t.Fatal("no incompleteness warning")
+	}
+	for _, v := range r.Unvisited {
+		if !strings.Contains(a.w.incomplete.Text, nodeName(s, v)) {
+			t.Fatalf("warning %q does not list %s", a.w.incomplete.Text, nodeName(s, v))
+		}
+	}
+	if a.w.worst.Text != "never" || !strings.Contains(a.w.gap.Text, "incomplete") {
+		t.Fatalf("worst %q gap %q for an incomplete plan", a.w.worst.Text, a.w.gap.Text)
+	}
+	if got := a.editor.Overlay().Unvisited; len(got) != len(r.Unvisited) {
+		t.Fatalf("canvas marks %d unvisited, engine %d", len(got), len(r.Unvisited))
+	}
+}
+
+func TestPlannerRefusalIsShownAndComparisonStillWorks(t *testing.T) {
+	h := newHarness(t, "")
+	a := h.app
+	// the exhaustive search planner (engine issue 4) refuses sites with more candidates than it can prove
+	search := ""
+	for _, p := range engine.PlannersFor(engine.Radio) {
+		if p.Search && p.Name == "exhaustive" {
+			search = p.Name
+		}
+	}
+	if search == "" {
+		t.Skip("the exhaustive planner is not registered yet")
+	}
+	s, _ := engine.NewSite(a.editor.Scenario())
+	_, want := engine.MakePlan(t.Context(), s, search, engine.Radio, engine.Options{})
+	a.w.planner.SetSelected(search + " (search)")
+	h.wait()
+	if want != nil {
+		if a.w.errLabel.Text != want.Error() || a.w.errTitle.Text != "The planner could not plan this site" {
+			t.Fatalf("planner refusal shown as %q / %q, engine says %q", a.w.errTitle.Text, a.w.errLabel.Text, want)
+		}
+		if a.comparison == nil || a.comparison.err != nil {
+			t.Fatal("no comparison although the site is valid")
+		}
+	} else if a.planErr != nil || a.plan.Planner != search {
+		t.Fatalf("planner %s: %v", search, a.planErr)
+	}
+}
