@@ -152,8 +152,7 @@ func (a *App) layout() fyne.CanvasObject {
 	main.Offset = 0.2
 	a.w.status = widget.NewLabel("")
 	a.w.status.Truncation = fyne.TextTruncateEllipsis
-	notice := widget.NewLabel(Notice)
-	notice.Importance = widget.LowImportance
+	notice := widget.NewLabelWithStyle(Notice, fyne.TextAlignTrailing, fyne.TextStyle{Italic: true})
 	bottom := container.NewVBox(widget.NewSeparator(), a.timelinePanel(), widget.NewSeparator(),
 		container.NewBorder(nil, nil, nil, notice, a.w.status))
 	return container.NewBorder(a.toolbar(), bottom, nil, nil, main)

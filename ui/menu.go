@@ -34,7 +34,7 @@ type widgets struct {
 	errBox, figures                                          *fyne.Container
 	worst, worstExit, lower, gap, expected, routes, planNote *widget.Label
 	expectedKey                                              *widget.Label
-	incomplete                                               *widget.Label
+	incomplete, emptyHint                                    *widget.Label
 	legendLo, legendHi                                       *widget.Label
 	table                                                    *widget.Table
 
@@ -160,7 +160,7 @@ func (a *App) mainMenu() *fyne.MainMenu {
 		fyne.NewMenuItem("Replay worst exit", func() { a.replayExit(-1) }),
 	)
 	help := fyne.NewMenu("Help",
-		item("Keyboard shortcuts", &desktop.CustomShortcut{KeyName: fyne.KeyF1}, a.showShortcuts),
+		fyne.NewMenuItem("Keyboard shortcuts", a.showShortcuts),
 		fyne.NewMenuItem("About Duosweep", a.showAbout),
 	)
 	return fyne.NewMainMenu(file, edit, plan, help)

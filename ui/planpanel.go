@@ -84,6 +84,10 @@ func (a *App) planPanel() fyne.CanvasObject {
 		widget.NewLabel("Route lengths"), w.routes,
 		widget.NewLabel("Plan"), w.planNote,
 	)
+	w.emptyHint = widget.NewLabel("Nothing to plan yet: add junctions (double-tap the canvas, or pick Add junction in the toolbar) " +
+		"and join them with corridors (Connect, or Alt-drag from one junction to another). Every junction but the start may hold the exit.")
+	w.emptyHint.Wrapping = fyne.TextWrapWord
+	w.emptyHint.Hide()
 	w.incomplete = widget.NewLabel("")
 	w.incomplete.Wrapping = fyne.TextWrapWord
 	w.incomplete.Importance = widget.DangerImportance
@@ -93,6 +97,7 @@ func (a *App) planPanel() fyne.CanvasObject {
 		choices,
 		container.NewBorder(nil, nil, nil, w.busyLabel, w.busyBar),
 		w.errBox,
+		w.emptyHint,
 		w.figures,
 		w.incomplete,
 		a.legend(),
@@ -147,6 +152,7 @@ func (a *App) refreshResults() {
 		}
 		w.errLabel.SetText(a.planErr.Error())
 		w.errBox.Show()
+		w.emptyHint.Hide()
 		w.figures.Hide()
 		w.incomplete.Hide()
 		a.sortExits()
@@ -154,8 +160,17 @@ func (a *App) refreshResults() {
 		return
 	}
 	w.errBox.Hide()
-	w.figures.Show()
 	s, r, p := a.site, a.report, a.plan
+	if len(r.Exits) == 0 {
+		w.emptyHint.Show()
+		w.figures.Hide()
+		w.incomplete.Hide()
+		a.sortExits()
+		w.table.Refresh()
+		return
+	}
+	w.emptyHint.Hide()
+	w.figures.Show()
 	unit := s.Unit()
 	w.worst.SetText(fmtTime(r.Worst))
 	if r.WorstExit >= 0 {
