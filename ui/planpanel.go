@@ -359,7 +359,7 @@ func (a *App) sortExits() {
 		case 3:
 			return ex.EvacAt, ""
 		}
-		return 0, a.site.IDs[ex.Node]
+		return float64(ex.Node), "" // scenario order
 	}
 	sort.SliceStable(a.exitRows, func(x, y int) bool {
 		i, j := a.exitRows[x], a.exitRows[y]

@@ -382,8 +382,10 @@ func (a *App) refreshRate() {
 	if a.w.rate == nil {
 		return
 	}
-	if r := a.rate(); r > 0 {
-		a.w.rate.SetText(fmt.Sprintf("%.3g× real time", r))
+	if r := a.rate(); r >= 10 {
+		a.w.rate.SetText(fmt.Sprintf("%.0f× real time", r))
+	} else if r > 0 {
+		a.w.rate.SetText(fmt.Sprintf("%.2g× real time", r))
 	} else {
 		a.w.rate.SetText("")
 	}
