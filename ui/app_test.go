@@ -158,6 +158,9 @@ func TestInvalidSiteShowsEngineMessage(t *testing.T) {
 	if a.replay != nil || len(a.editor.Overlay().Agents) != 0 {
 		t.Fatal("agents still replayed on an invalid site")
 	}
+	if a.w.legend.Visible() || a.editor.Overlay().Evac != nil {
+		t.Fatal("heat legend or heat colours of the last valid plan still shown")
+	}
 	a.editor.Undo()
 	h.wait()
 	if a.planErr != nil || a.w.errBox.Visible() || !a.w.figures.Visible() {

@@ -31,7 +31,7 @@ type widgets struct {
 	busyBar                                                  *widget.ProgressBarInfinite
 	busyLabel                                                *widget.Label
 	errLabel, errTitle                                       *widget.Label
-	errBox, figures                                          *fyne.Container
+	errBox, figures, legend                                  *fyne.Container
 	worst, worstExit, lower, gap, expected, routes, planNote *widget.Label
 	expectedKey                                              *widget.Label
 	incomplete, emptyHint                                    *widget.Label

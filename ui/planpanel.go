@@ -155,6 +155,7 @@ func (a *App) refreshResults() {
 		w.emptyHint.Hide()
 		w.figures.Hide()
 		w.incomplete.Hide()
+		a.refreshLegend()
 		a.sortExits()
 		w.table.Refresh()
 		return
@@ -165,6 +166,7 @@ func (a *App) refreshResults() {
 		w.emptyHint.Show()
 		w.figures.Hide()
 		w.incomplete.Hide()
+		a.refreshLegend()
 		a.sortExits()
 		w.table.Refresh()
 		return
@@ -258,16 +260,21 @@ func (a *App) legend() fyne.CanvasObject {
 	a.w.legendLo.Importance = widget.LowImportance
 	a.w.legendHi.Importance = widget.LowImportance
 	title := widget.NewLabelWithStyle("Evacuation time per candidate", fyne.TextAlignCenter, fyne.TextStyle{})
-	return container.NewVBox(
+	a.w.legend = container.NewVBox(
 		container.NewBorder(nil, nil, a.w.legendLo, a.w.legendHi, title),
 		container.NewPadded(bar),
 	)
+	return a.w.legend
 }
 
+// refreshLegend shows the scale of the current report, and hides it when there is nothing coloured.
 func (a *App) refreshLegend() {
-	if a.report != nil {
-		a.w.legendHi.SetText(projects.FormatDuration(finiteMax(a.report)))
+	if a.report == nil || a.planErr != nil || len(a.report.Exits) == 0 {
+		a.w.legend.Hide()
+		return
 	}
+	a.w.legendHi.SetText(projects.FormatDuration(finiteMax(a.report)))
+	a.w.legend.Show()
 }
 
 // Columns of the candidate table.
