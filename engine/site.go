@@ -69,6 +69,8 @@ type Site struct {
 	bounds     Bounds
 	statsOnce  sync.Once
 	st         *subtreeStats
+	kidsOnce   [4]sync.Once
+	kidCache   [4]*kids
 }
 
 // NewSite validates sc and builds a Site. It is O(n log n) in the worst case

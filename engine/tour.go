@@ -50,30 +50,55 @@ func (s *Site) stats() *subtreeStats {
 	return s.st
 }
 
-// SearchChildren returns the children of v inside the search tree, ordered by o.
+// SearchChildren returns the children of v inside the search tree, ordered
+// by o. The lists are computed once per order for the whole site (O(n log n))
+// and shared: do not modify the result.
 func (s *Site) SearchChildren(v int, o ChildOrder) []int {
-	var out []int
-	for _, c := range s.Children(v) {
-		if s.InSearch[c] {
-			out = append(out, int(c))
+	k := s.kidLists(o)
+	return k.list[k.start[v]:k.start[v+1]]
+}
+
+// kids is a CSR list of search-tree children in one child order.
+type kids struct {
+	start []int32
+	list  []int
+}
+
+func (s *Site) kidLists(o ChildOrder) *kids {
+	if o < 0 || int(o) >= len(s.kidsOnce) {
+		o = OrderIndex
+	}
+	s.kidsOnce[o].Do(func() {
+		st := s.stats()
+		k := &kids{start: make([]int32, s.N+1), list: make([]int, 0, s.N)}
+		key := func(c int) float64 {
+			switch o {
+			case OrderDeepLast:
+				return st.reach[c]
+			case OrderDeepFirst:
+				return -st.reach[c]
+			case OrderLightFirst:
+				return st.weight[c]
+			}
+			return 0
 		}
-	}
-	st := s.stats()
-	key := func(c int) float64 {
-		switch o {
-		case OrderDeepLast:
-			return st.reach[c]
-		case OrderDeepFirst:
-			return -st.reach[c]
-		case OrderLightFirst:
-			return st.weight[c]
+		for v := 0; v < s.N; v++ {
+			k.start[v] = int32(len(k.list))
+			from := len(k.list)
+			for _, c := range s.Children(v) {
+				if s.InSearch[c] {
+					k.list = append(k.list, int(c))
+				}
+			}
+			if o != OrderIndex && len(k.list)-from > 1 {
+				part := k.list[from:]
+				sort.SliceStable(part, func(i, j int) bool { return key(part[i]) < key(part[j]) })
+			}
 		}
-		return 0
-	}
-	if o != OrderIndex {
-		sort.SliceStable(out, func(i, j int) bool { return key(out[i]) < key(out[j]) })
-	}
-	return out
+		k.start[s.N] = int32(len(k.list))
+		s.kidCache[o] = k
+	})
+	return s.kidCache[o]
 }
 
 // Walk is a walk through the tree given as consecutive adjacent nodes, with
