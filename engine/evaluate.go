@@ -113,6 +113,7 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 	fv[0], order[0] = trs[0].firstVisits()
 	fv[1], order[1] = trs[1].firstVisits()
 	row := make([]int32, s.N) // node -> index in r.Exits
+	r.Exits = make([]ExitResult, 0, s.candidateCount())
 	for v := 0; v < s.N; v++ {
 		if s.Candidate[v] {
 			row[v] = int32(len(r.Exits))

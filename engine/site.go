@@ -170,6 +170,17 @@ func (s *Site) Candidates() []int {
 	return out
 }
 
+// candidateCount returns the number of candidates.
+func (s *Site) candidateCount() int {
+	n := 0
+	for _, c := range s.Candidate {
+		if c {
+			n++
+		}
+	}
+	return n
+}
+
 // Children returns the children of v in corridor order (the slice is shared; do not modify).
 func (s *Site) Children(v int) []int32 { return s.ChildList[s.ChildStart[v]:s.ChildStart[v+1]] }
 
