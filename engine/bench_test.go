@@ -218,36 +218,69 @@ func BenchmarkEvaluate(b *testing.B) {
 	}
 }
 
-// BenchmarkPlanAndEvaluateBoth is what pressing "plan" costs on a loaded
-// site: BestPlan under both models (each runs every non-search planner and
-// evaluates its plan), on a fresh site per iteration.
+// BenchmarkPlanAndEvaluateBoth measures, on a fresh site per iteration,
+// "planning plus evaluating under both models" two ways: per planner
+// (MakePlan, then Evaluate under both models) and for the app's default
+// (BestPlan for each model, which runs every non-search planner and
+// evaluates each plan, then the winner under the other model). Compare with
+// BenchmarkLoadAndValidate in the same run.
 func BenchmarkPlanAndEvaluateBoth(b *testing.B) {
+	fresh := func(b *testing.B, n int) *engine.Site {
+		b.StopTimer()
+		defer b.StartTimer()
+		s, err := engine.NewSite(benchTree(n))
+		if err != nil {
+			b.Fatal(err)
+		}
+		return s
+	}
 	for _, n := range benchSizes {
-		b.Run(sizeName(n), func(b *testing.B) {
-			skipIfSlow(b, "plan+evaluate", n)
-			sc := benchTree(n)
+		for _, info := range engine.Planners() {
+			if info.Search {
+				continue
+			}
+			family := "plan+evaluate " + info.Name
+			b.Run(info.Name+"/"+sizeName(n), func(b *testing.B) {
+				skipIfSlow(b, family, n)
+				b.ResetTimer()
+				for i := 0; i < b.N; i++ {
+					s := fresh(b, n)
+					p, err := engine.MakePlan(context.Background(), s, info.Name, info.Models[0], engine.Options{})
+					if err != nil {
+						b.Fatal(err)
+					}
+					if _, _, err := engine.EvaluateBoth(s, p); err != nil {
+						b.Fatal(err)
+					}
+				}
+				perNode(b, n)
+				noteTime(b, family, n)
+			})
+		}
+		b.Run("best/"+sizeName(n), func(b *testing.B) {
+			skipIfSlow(b, "plan+evaluate best", n)
 			b.ResetTimer()
 			for i := 0; i < b.N; i++ {
-				b.StopTimer()
-				s, err := engine.NewSite(sc)
-				if err != nil {
-					b.Fatal(err)
-				}
-				b.StartTimer()
+				s := fresh(b, n)
 				for _, m := range engine.Models {
-					if _, _, err := engine.BestPlan(context.Background(), s, m); err != nil {
+					p, _, err := engine.BestPlan(context.Background(), s, m)
+					if err != nil {
+						b.Fatal(err)
+					}
+					if _, err := engine.Evaluate(s, p, 1-m); err != nil {
 						b.Fatal(err)
 					}
 				}
 			}
 			perNode(b, n)
-			noteTime(b, "plan+evaluate", n)
+			noteTime(b, "plan+evaluate best", n)
 		})
 	}
 }
 
 // BenchmarkLoadAndValidate is what opening a scenario file costs: parse the
-// JSON written by projects.Save, then NewSite.
+// JSON written by projects.Save and validate it into the Site the planners
+// need (projects.LoadSite).
 func BenchmarkLoadAndValidate(b *testing.B) {
 	for _, n := range benchSizes {
 		b.Run(sizeName(n), func(b *testing.B) {
@@ -259,11 +292,7 @@ func BenchmarkLoadAndValidate(b *testing.B) {
 			b.SetBytes(int64(len(data)))
 			b.ResetTimer()
 			for b.Loop() {
-				sc, err := projects.Load(bytes.NewReader(data))
-				if err != nil {
-					b.Fatal(err)
-				}
-				if _, err := engine.NewSite(sc); err != nil {
+				if _, _, err := projects.LoadSite(bytes.NewReader(data)); err != nil {
 					b.Fatal(err)
 				}
 			}

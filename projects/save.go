@@ -152,16 +152,22 @@ func writeJSON(w io.Writer, what string, v any) error {
 // LoadFile reads and validates the scenario file at path (see Load). Errors
 // start with "projects: PATH: ".
 func LoadFile(path string) (engine.Scenario, error) {
+	sc, _, err := LoadSiteFile(path)
+	return sc, err
+}
+
+// LoadSiteFile is LoadFile that also returns the validated site.
+func LoadSiteFile(path string) (engine.Scenario, *engine.Site, error) {
 	f, err := os.Open(path)
 	if err != nil {
-		return engine.Scenario{}, &Error{Msg: "projects: " + path + ": cannot open: " + pathErrText(err), Err: err}
+		return engine.Scenario{}, nil, &Error{Msg: "projects: " + path + ": cannot open: " + pathErrText(err), Err: err}
 	}
 	defer f.Close()
-	sc, err := Load(f)
+	sc, s, err := LoadSite(f)
 	if err != nil {
-		return engine.Scenario{}, withPath(path, err)
+		return engine.Scenario{}, nil, withPath(path, err)
 	}
-	return sc, nil
+	return sc, s, nil
 }
 
 // withPath inserts the file path after the package prefix.

@@ -171,14 +171,22 @@ func requiredString(field string, p *string) (string, error) {
 // validates the site with engine.NewSite. On any problem it returns the zero
 // Scenario and an error naming the field and value. O(n) plus validation.
 func Load(r io.Reader) (engine.Scenario, error) {
+	sc, _, err := LoadSite(r)
+	return sc, err
+}
+
+// LoadSite is Load that also returns the validated site, so a caller that
+// plans need not validate the scenario a second time.
+func LoadSite(r io.Reader) (engine.Scenario, *engine.Site, error) {
 	sc, err := decode(r)
 	if err != nil {
-		return engine.Scenario{}, err
+		return engine.Scenario{}, nil, err
 	}
-	if _, err := engine.NewSite(sc); err != nil {
-		return engine.Scenario{}, wrapEngine("", err)
+	s, err := engine.NewSite(sc)
+	if err != nil {
+		return engine.Scenario{}, nil, wrapEngine("", err)
 	}
-	return sc, nil
+	return sc, s, nil
 }
 
 // LoadDraft reads a scenario like Load but does not validate the tree (for

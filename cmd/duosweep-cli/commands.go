@@ -202,15 +202,8 @@ func parseArgs(fs *flag.FlagSet, args []string, min, max int, names string) ([]s
 
 // loadSite loads and validates a scenario file.
 func loadSite(path string) (*engine.Site, error) {
-	sc, err := projects.LoadFile(path)
-	if err != nil {
-		return nil, err
-	}
-	s, err := engine.NewSite(sc)
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", path, err)
-	}
-	return s, nil
+	_, s, err := projects.LoadSiteFile(path)
+	return s, err
 }
 
 func parseModel(v string) (engine.Model, error) {
