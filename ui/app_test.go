@@ -534,3 +534,28 @@ func TestPlannerRefusalIsShownAndComparisonStillWorks(t *testing.T) {
 		t.Fatalf("planner %s: %v", search, a.planErr)
 	}
 }
+
+func TestNewSiteShowsHowToStart(t *testing.T) {
+	h := newHarness(t, "")
+	a := h.app
+	a.newScenario() // clean: no prompt
+	h.wait()
+	if got := a.editor.Scenario(); len(got.Nodes) != 1 || got.Start != "start" || a.dirty || a.path != "" {
+		t.Fatalf("new site: %+v dirty %v path %q", got, a.dirty, a.path)
+	}
+	if !a.w.emptyHint.Visible() || a.w.figures.Visible() || a.w.legend.Visible() {
+		t.Fatal("an empty site shows figures instead of the how-to hint")
+	}
+	if h.win.Title() != "Duosweep — New site" {
+		t.Fatalf("title %q", h.win.Title())
+	}
+	// a junction 50 m from the start, both agents at speed 1: the worst case is 50 s (worked by hand)
+	h.edit("grow", func(s *engine.Scenario) error {
+		s.Nodes = append(s.Nodes, engine.Node{ID: "j2", X: 50, HasXY: true, Candidate: true})
+		s.Corridors = append(s.Corridors, engine.Corridor{From: "start", To: "j2", Length: 50})
+		return nil
+	})
+	if a.w.emptyHint.Visible() || !a.w.figures.Visible() || !near(a.report.Worst, 50) {
+		t.Fatalf("after adding a junction at 50 m (speed 1): worst %v", a.report.Worst)
+	}
+}
