@@ -38,11 +38,14 @@ smoke: deps-gui build
 bench:
 	$(GO) test -run '^$$' -bench . -benchtime 1x ./...
 
-# Linux bundle (.tar.xz with binary, .desktop file and icon) from FyneApp.toml at the repository root.
+# Linux bundle (.tar.xz with binary, .desktop file and icon) from FyneApp.toml at the repository root:
+# `fyne package` reads FyneApp.toml only from the folder it packages, so a copy sits there for the run.
 package: deps
 	@command -v fyne >/dev/null 2>&1 || $(GO) install fyne.io/tools/cmd/fyne@v1.7.4
-	PATH="$$PATH:$$($(GO) env GOPATH)/bin" fyne package -os linux --src cmd/duosweep --icon ../../icons/duosweep.png
-	@ls -l *.tar.xz
+	cp FyneApp.toml cmd/duosweep/FyneApp.toml
+	cd cmd/duosweep && PATH="$$PATH:$$($(GO) env GOPATH)/bin" fyne package -os linux --icon $(CURDIR)/icons/duosweep.png; s=$$?; rm -f FyneApp.toml; exit $$s
+	mv cmd/duosweep/Duosweep.tar.xz .
+	@ls -l Duosweep.tar.xz
 
 demo: cli
 	bin/duosweep-cli demo demo.sweep.json
