@@ -67,8 +67,8 @@ import (
 
 // Limits of the exhaustive planner: it refuses larger sites up front.
 const (
-	ExhaustiveMaxCandidates = 16
-	ExhaustiveMaxNodes      = 40 // nodes of the search tree
+	ExhaustiveMaxCandidates = 24
+	ExhaustiveMaxNodes      = 48 // nodes of the search tree
 )
 
 // ExhaustiveImproveIterations is the length of the improve run (seeded with
@@ -215,7 +215,7 @@ type pendCache struct {
 	ok     bool
 }
 
-const exMemoCap = 3_000_000
+const exMemoCap = 1_500_000 // about 300 MB at most
 
 // CheckExhaustiveSize returns an error wrapping ErrSiteTooLarge when the
 // site exceeds the exhaustive planner's limits.
