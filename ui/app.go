@@ -46,6 +46,12 @@ type App struct {
 	report     *engine.Report
 	planErr    error
 	comparison *comparison
+	// the best-available or chosen planner's plan as published (a.plan may be a search result in use)
+	pubPlan   *engine.Plan
+	pubReport *engine.Report
+
+	// the "search for a better plan" action
+	search searchState
 
 	// playback
 	focus    int // candidate replayed on request (OnNodeTapped), -1 for the worst exit

@@ -37,6 +37,7 @@ type widgets struct {
 	incomplete, emptyHint                                    *widget.Label
 	legendLo, legendHi                                       *widget.Label
 	table                                                    *widget.Table
+	search                                                   searchWidgets
 
 	// comparison
 	cmpCells                     [2][2]*widget.Label

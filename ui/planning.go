@@ -89,6 +89,8 @@ func (a *App) startPlan(now bool) {
 	if a.cancel != nil {
 		a.cancel()
 	}
+	// a search on the old site or model no longer applies
+	a.dropSearch("Search cancelled: the site or the planning choices changed, so the published planners plan again.")
 	ctx, cancel := context.WithCancel(context.Background())
 	a.cancel = cancel
 	a.gen++
@@ -143,6 +145,7 @@ func (a *App) publish(gen uint64, res planResult) {
 	if res.err != nil {
 		// the canvas keeps showing the scenario; the panel shows the message
 		a.site, a.plan, a.report = res.site, nil, nil
+		a.pubPlan, a.pubReport = nil, nil
 		a.heat = noHeat()
 		a.setBusy(false)
 		a.setReplay(nil)
@@ -151,6 +154,7 @@ func (a *App) publish(gen uint64, res planResult) {
 		return
 	}
 	a.site, a.plan, a.report = res.site, res.plan, res.report
+	a.pubPlan, a.pubReport = res.plan, res.report
 	a.heat = heatOverlay(res.site, res.report)
 	a.setBusy(false)
 	if a.focus >= 0 {
@@ -187,6 +191,7 @@ func (a *App) setBusy(b bool) {
 			a.w.busyLabel.SetText("")
 		}
 	}
+	a.refreshSearch()
 }
 
 // finiteMax returns the largest finite evacuation time of r (0 when none is finite).

@@ -96,6 +96,7 @@ func (a *App) planPanel() fyne.CanvasObject {
 	top := container.NewVBox(
 		choices,
 		container.NewBorder(nil, nil, nil, w.busyLabel, w.busyBar),
+		a.searchPanel(),
 		w.errBox,
 		w.emptyHint,
 		w.figures,
