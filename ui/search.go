@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"strings"
 	"time"
 
 	"fyne.io/fyne/v2"
@@ -119,9 +120,8 @@ func (a *App) searchPanel() fyne.CanvasObject {
 	sw.useHint.Importance = widget.LowImportance
 	sw.result = container.NewVBox(
 		container.New(layout.NewFormLayout(), sw.baseKey, sw.baseVal, sw.resKey, sw.resVal),
-		sw.verdict,
+		container.NewBorder(nil, nil, nil, container.NewCenter(sw.use), sw.verdict),
 		sw.note,
-		container.NewHBox(sw.use),
 		sw.useHint,
 	)
 	sw.result.Hide()
@@ -321,13 +321,23 @@ func (a *App) finishSearch(res *searchResult) {
 	sw.baseKey.SetText("Best published planner")
 	sw.baseVal.SetText(fmt.Sprintf("%s: %s, gap %s", res.base.Planner, projects.FormatDuration(res.baseR.Worst), gapText(res.baseR)))
 	sw.resKey.SetText("Search result")
-	sw.resVal.SetText(fmt.Sprintf("%s: %s, gap %s", name, projects.FormatDuration(res.report.Worst), gapText(res.report)))
+	proof := ""
+	if res.planner == "exhaustive" {
+		// the exhaustive planner's note opens with what it proved (engine/exhaustive.go)
+		switch {
+		case strings.HasPrefix(res.plan.Note, "best of class"):
+			proof = ", proved best of class"
+		case strings.HasPrefix(res.plan.Note, "NOT proven"):
+			proof = ", not proven (stopped)"
+		}
+	}
+	sw.resVal.SetText(fmt.Sprintf("%s: %s, gap %s%s", name, projects.FormatDuration(res.report.Worst), gapText(res.report), proof))
 	gain := res.baseR.Worst - res.report.Worst
 	switch {
 	case gain > 1e-9*math.Max(1, res.baseR.Worst):
-		sw.verdict.SetText(fmt.Sprintf("%.1f s (%.1f %%) shorter worst case than the best published planner.", gain, 100*gain/res.baseR.Worst))
+		sw.verdict.SetText(fmt.Sprintf("%.1f s (%.1f %%) shorter worst case than the published plan.", gain, 100*gain/res.baseR.Worst))
 	default:
-		sw.verdict.SetText("No plan with a shorter worst case than the best published planner's was found.")
+		sw.verdict.SetText("No shorter worst case found: the published plan stands.")
 	}
 	note := res.plan.Note
 	if res.cancelled {

@@ -239,6 +239,9 @@ func TestProveBestOfClassOnSmallSite(t *testing.T) {
 	if !near(res.report.Worst, r.Worst) || res.report.Worst > br.Worst*(1+1e-12) {
 		t.Fatalf("shown exhaustive worst %v, engine %v, published %v", res.report.Worst, r.Worst, br.Worst)
 	}
+	if !strings.HasSuffix(a.w.search.resVal.Text, ", proved best of class") {
+		t.Fatalf("result %q does not say the class optimum was proved", a.w.search.resVal.Text)
+	}
 	if !strings.Contains(a.w.search.note.Text, "best of class") {
 		t.Fatalf("note %q does not say whether the class optimum was proved", a.w.search.note.Text)
 	}
