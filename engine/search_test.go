@@ -76,6 +76,10 @@ func TestExhaustiveMatchesEnumeration(t *testing.T) {
 			p2, r2, err := exhaustive(context.Background(), s, m, Options{Budget: time.Minute}, exConfig{noSeed: true, noPrune: true})
 			require.NoError(t, err)
 			require.True(t, r1.Proven && r2.Proven)
+			// without seeds the plan must come from the search itself (a guard
+			// against a search that silently scores every leaf as infinite)
+			require.Equal(t, "exhaustive", r1.Incumbent, "seed %d %s", seed, m)
+			require.Equal(t, "exhaustive", r2.Incumbent, "seed %d %s", seed, m)
 			w1, w2 := worstOf(t, s, p1, m), worstOf(t, s, p2, m)
 			require.InDelta(t, w2, w1, 1e-9*w2, "seed %d %s: branch and bound %g, enumeration %g (states %d vs %d)", seed, m, w1, w2, r1.States, r2.States)
 		}
@@ -187,7 +191,7 @@ func TestSearchPlannersOnSmallTrees(t *testing.T) {
 	// iterations), so exhaustive ≤ improve holds by construction; the share
 	// measures how often the class search finds nothing better.
 	const iters = ExhaustiveImproveIterations
-	hit, total, outside := 0, 0, 0
+	hit, total, outside, own := 0, 0, 0, 0
 	for i := 0; i < trees; i++ {
 		s := mustSite(t, searchTree(uint64(5000+i), 2+i%8))
 		lb := ComputeBounds(s).LB
@@ -214,6 +218,9 @@ func TestSearchPlannersOnSmallTrees(t *testing.T) {
 			if wi <= we*(1+1e-9) {
 				hit++
 			}
+			if res.Incumbent == "exhaustive" {
+				own++
+			}
 			if res.Incumbent == "improve" {
 				outside++ // the improve plan lies outside the class and no class plan beats it
 			}
@@ -224,6 +231,7 @@ func TestSearchPlannersOnSmallTrees(t *testing.T) {
 	share := float64(hit) / float64(total)
 	t.Logf("improve (%d iterations, seed 1) reached the exhaustive value on %d of %d runs (%.1f%%); on %d runs no plan of the class beat improve's plan", iters, hit, total, 100*share, outside)
 	require.GreaterOrEqual(t, share, 0.9)
+	t.Logf("the search's own plan beat both seeds on %d of %d runs", own, total)
 }
 
 // A cancelled context stops both search planners promptly: exhaustive
