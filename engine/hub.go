@@ -477,8 +477,9 @@ func (it *hubItems) split(target float64) []bool {
 }
 
 // hubLargeSite is the node count above which only one order of the leftover
-// parts and one moved hub are tried (4 exact evaluations instead of 11 on
-// large sites); the same threshold as the other published planners.
+// parts, no cover-then-meet plan and one moved hub are tried (3 exact
+// evaluations instead of 11); the same threshold as the other published
+// planners.
 const hubLargeSite = LargeSite
 
 // hubVariant is one candidate plan with a short tag naming how it was made.
@@ -702,8 +703,9 @@ func hubPhases(s *Site, cy *hubCycle, c Point, fa int, T1 float64, name string, 
 	fb := 1 - fa
 	var out []hubVariant
 	// cover-then-meet: cut the tour so both reach c at the same time after
-	// exploring their halves, rendezvous at c
-	{
+	// exploring their halves, rendezvous at c (left out on large sites, where
+	// it wins least often)
+	if !large {
 		m, _ := cy.meetAtHub(s, c, s.Speed[fa], s.Speed[fb])
 		ra, rb := newRoute(s, fa), newRoute(s, fb)
 		ra.cycleFwd(cy, m)
