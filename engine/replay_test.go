@@ -14,39 +14,26 @@ import (
 // routes, and that the informed trajectories never need more than full speed
 // (Site.Trajectory refuses those).
 func TestReplayAgreesWithEvaluate(t *testing.T) {
-	for seed := uint64(1); seed <= 150; seed++ {
-		s, err := NewSite(randomScenario(seed, 2+int(seed%20)))
+	forEachPublishedPlan(t, 150, 21, func(seed uint64, s *Site, info PlannerInfo, m Model, p *Plan, r *Report) {
+		trs, err := s.Trajectories(p)
 		require.NoError(t, err)
-		for _, m := range Models {
-			for _, info := range PlannersFor(m) {
-				if info.Search {
-					continue
+		for _, ex := range r.Exits {
+			rp, err := NewReplay(s, p, m, ex.Node)
+			require.NoError(t, err, "seed %d %s %s exit %d", seed, info.Name, m, ex.Node)
+			require.InDelta(t, ex.EvacAt, rp.End, 1e-9*math.Max(1, ex.EvacAt))
+			for a := 0; a < 2; a++ {
+				require.InDelta(t, 0, s.NodeDist(rp.Position(a, rp.End+1e-9), ex.Node), 1e-6, "agent %d not at the exit", a)
+				for _, f := range []float64{0, 0.3, 0.7, 1} {
+					tt := f * ex.FoundAt
+					require.InDelta(t, 0, s.PointDist(rp.Position(a, tt), trs[a].PositionAt(tt)), 1e-6)
 				}
-				p, err := MakePlan(context.Background(), s, info.Name, m, Options{})
-				require.NoError(t, err)
-				r, err := Evaluate(s, p, m)
-				require.NoError(t, err)
-				trs, err := s.Trajectories(p)
-				require.NoError(t, err)
-				for _, ex := range r.Exits {
-					rp, err := NewReplay(s, p, m, ex.Node)
-					require.NoError(t, err, "seed %d %s %s exit %d", seed, info.Name, m, ex.Node)
-					require.InDelta(t, ex.EvacAt, rp.End, 1e-9*math.Max(1, ex.EvacAt))
-					for a := 0; a < 2; a++ {
-						require.InDelta(t, 0, s.NodeDist(rp.Position(a, rp.End+1e-9), ex.Node), 1e-6, "agent %d not at the exit", a)
-						for _, f := range []float64{0, 0.3, 0.7, 1} {
-							tt := f * ex.FoundAt
-							require.InDelta(t, 0, s.PointDist(rp.Position(a, tt), trs[a].PositionAt(tt)), 1e-6)
-						}
-						require.Equal(t, rp.Informed(a, rp.End), true)
-					}
-					require.NotEmpty(t, rp.Events)
-					require.Equal(t, EventFound, rp.Events[0].Kind)
-					require.InDelta(t, ex.EvacAt, rp.Events[len(rp.Events)-1].T, 1e-9*math.Max(1, ex.EvacAt))
-				}
+				require.Equal(t, rp.Informed(a, rp.End), true)
 			}
+			require.NotEmpty(t, rp.Events)
+			require.Equal(t, EventFound, rp.Events[0].Kind)
+			require.InDelta(t, ex.EvacAt, rp.Events[len(rp.Events)-1].T, 1e-9*math.Max(1, ex.EvacAt))
 		}
-	}
+	})
 }
 
 func TestReplayRefusesNonCandidate(t *testing.T) {
