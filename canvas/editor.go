@@ -6,6 +6,7 @@ import (
 
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/driver/desktop"
+	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
 	"duosweep/canvas/geom"
@@ -77,6 +78,11 @@ type Editor struct {
 	// timer (useful in tests run with -race, where the hiding timer would
 	// touch the widget from another goroutine).
 	MessageDuration time.Duration
+	// Schedule, when set, runs f on the UI goroutine after d: the editor hides
+	// its messages with it. nil means time.AfterFunc followed by fyne.Do. An
+	// app whose tests deliver UI work through their own queue sets it so that
+	// the hiding never touches the widget from a timer goroutine.
+	Schedule func(d time.Duration, f func())
 
 	sc   engine.Scenario
 	d    derived
@@ -498,13 +504,48 @@ func (e *Editor) FitView() {
 		return
 	}
 	e.fitWait = false
-	b := geom.Bounds(e.d.world)
 	keep := e.view.Zoom
 	if len(e.d.world) <= 1 {
 		keep = 1
 	}
-	e.view = geom.Fit(b, float64(s.Width), float64(s.Height), 48, keep)
+	e.view = geom.FitExtents(e.d.world, e.fitExtents(), float64(s.Width), float64(s.Height), fitMargin, keep)
 	e.viewChanged()
+}
+
+// fitMargin is the room FitView leaves around every junction (widget units); labels get more.
+const fitMargin = 32
+
+// fitExtents is the room each junction needs on screen: its marker everywhere, and its label to the
+// right and above (where the renderer places a label first), so that a fitted view never cuts a label
+// at the edge. Label sizes are the renderer's when it has measured them, else measured here.
+func (e *Editor) fitExtents() []geom.Extent {
+	n := len(e.d.world)
+	ext := make([]geom.Extent, n)
+	var ts float32
+	for i := 0; i < n; i++ {
+		lbl := e.sc.Nodes[i].Label
+		if lbl == "" {
+			lbl = e.sc.Nodes[i].ID
+		}
+		var sz fyne.Size
+		if e.r != nil && i < len(e.r.nodeLbl) && e.r.nodeLbl[i].Text == lbl {
+			sz = e.r.nodeLbl[i].Size()
+		} else {
+			if ts == 0 {
+				ts = theme.SizeForWidget(theme.SizeNameCaptionText, e)
+			}
+			sz = fyne.MeasureText(lbl, ts, fyne.TextStyle{})
+		}
+		w, h := float64(sz.Width), float64(sz.Height)
+		gap := float64(nodeR + 4)
+		ext[i] = geom.Extent{L: fitMargin, R: math.Max(fitMargin, gap+w+8), T: math.Max(fitMargin, gap+h+4), B: fitMargin}
+		if i == e.d.start {
+			// the start's square and tag, and a label kept clear of them
+			ext[i].B = math.Max(fitMargin, 21+h+4)
+			ext[i].R = math.Max(ext[i].R, 21+w+8)
+		}
+	}
+	return ext
 }
 
 // ZoomBy multiplies the zoom by f keeping the drawing point under around fixed.

@@ -2,9 +2,11 @@ package canvas
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"strings"
 	"testing"
+	"time"
 
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/test"
@@ -583,5 +585,59 @@ func TestContextMenu(t *testing.T) {
 		if !strings.Contains(m, s) {
 			t.Fatalf("menu lacks %q", s)
 		}
+	}
+}
+
+func TestFitViewLeavesRoomForLabels(t *testing.T) {
+	// a straight gallery drawn left to right whose far end has a long label:
+	// the fitted view must show that label whole, at its preferred place
+	// (right of the junction), not push it elsewhere or cut it at the edge
+	sc := engine.Scenario{Name: "gallery", Unit: "m", Start: "s"}
+	prev := "s"
+	sc.Nodes = append(sc.Nodes, engine.Node{ID: "s", HasXY: true})
+	for i := 1; i <= 6; i++ {
+		id := fmt.Sprintf("g%d", i)
+		nd := engine.Node{ID: id, X: float64(40 * i), HasXY: true, Candidate: true}
+		if i == 6 {
+			nd.Label = "East face of the far gallery"
+		}
+		sc.Nodes = append(sc.Nodes, nd)
+		sc.Corridors = append(sc.Corridors, engine.Corridor{From: prev, To: id, Length: 40})
+		prev = id
+	}
+	e, _, _ := newTestEditor(t, sc)
+	e.FitView()
+	last := len(sc.Nodes) - 1
+	lbl := e.r.nodeLbl[last]
+	if lbl.Hidden {
+		t.Fatal("the far end's label is hidden after FitView")
+	}
+	box := geom.Rect{Min: toPt(lbl.Position()), Max: toPt(lbl.Position().Add(lbl.Size()))}
+	size := e.Size()
+	if box.Min.X < 0 || box.Min.Y < 0 || box.Max.X > float64(size.Width) || box.Max.Y > float64(size.Height) {
+		t.Fatalf("label box %v leaves the %v widget", box, size)
+	}
+	if x := float64(e.NodeXY(last).X); box.Min.X <= x {
+		t.Fatalf("label starts at x %.1f, left of its junction at %.1f: the fit left it no room on the right", box.Min.X, x)
+	}
+	for i := range sc.Nodes {
+		p := e.NodeXY(i)
+		if p.X < 0 || p.Y < 0 || p.X > size.Width || p.Y > size.Height {
+			t.Fatalf("junction %d at %v is outside the view", i, p)
+		}
+	}
+}
+
+func TestScheduleHidesMessages(t *testing.T) {
+	e, _, rc := newTestEditor(t, small())
+	var queued []func()
+	e.Schedule = func(_ time.Duration, f func()) { queued = append(queued, f) }
+	e.TypedShortcut(&desktopShortcutZ) // nothing to undo: a message
+	if e.Message() != "nothing to undo" || len(queued) != 1 || len(rc.timers) != 0 {
+		t.Fatalf("message %q, %d scheduled, %d on the default timer", e.Message(), len(queued), len(rc.timers))
+	}
+	queued[0]()
+	if e.Message() != "" {
+		t.Fatalf("message %q still shown after its timer", e.Message())
 	}
 }

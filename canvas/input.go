@@ -112,7 +112,11 @@ func (e *Editor) message(msg string, at fyne.Position) {
 		e.Refresh() // shown until the next message
 		return
 	}
-	e.after(d, func() {
+	after := e.after
+	if e.Schedule != nil {
+		after = e.Schedule
+	}
+	after(d, func() {
 		if e.msg.gen == gen {
 			e.msg.text = ""
 			e.Refresh()

@@ -424,6 +424,21 @@ func (r *editorRenderer) Layout(size fyne.Size) {
 		}
 		r.nodeLbl[i].Hidden = true
 	}
+	// the start's square and tag and the worst exit's tag are drawn below their junctions: keep labels
+	// off them
+	tagBox := func(t *fc.Text, p geom.Pt, dy float64) {
+		sz := t.Size()
+		w, h := float64(sz.Width), float64(sz.Height)
+		r.placer.Add(geom.Rect{Min: geom.Pt{X: p.X - w/2, Y: p.Y + dy}, Max: geom.Pt{X: p.X + w/2, Y: p.Y + dy + h}})
+	}
+	if start >= 0 && start < n && vis.Contains(pts[start]) {
+		p := pts[start]
+		r.placer.Add(geom.Rect{Min: p.Sub(geom.Pt{X: startHalf, Y: startHalf}), Max: p.Add(geom.Pt{X: startHalf, Y: startHalf})})
+		tagBox(r.tags[tagStart], p, startHalf+2)
+	}
+	if w := ov.Worst; w >= 0 && w < n && vis.Contains(pts[w]) {
+		tagBox(r.tags[tagWorst], pts[w], 17)
+	}
 	forced := [...]int{-1, -1, start, ov.Worst, ov.Focus}
 	if e.sel.Kind == SelNode {
 		forced[0] = e.sel.Index

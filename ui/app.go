@@ -121,6 +121,8 @@ func newApp(a fyne.App, w fyne.Window, path string, opt options) *App {
 	app.editor.OnSelectionChanged = func(canvas.Selection) { app.refreshInspector() }
 	app.editor.OnNodeTapped = app.nodeTapped
 	app.editor.OnMessage = func(msg string, _ fyne.Position) { app.setStatus(msg) }
+	// the editor's message timer reaches the widget through post, like every background result
+	app.editor.Schedule = func(d time.Duration, f func()) { time.AfterFunc(d, func() { app.post(f) }) }
 
 	w.SetIcon(icons.App)
 	w.SetContent(app.layout())

@@ -323,3 +323,80 @@ func TestLabelCandidatesAndPlacer(t *testing.T) {
 		t.Fatal("Reset did not empty")
 	}
 }
+
+func TestFitExtentsKeepsLabelsInside(t *testing.T) {
+	// worked by hand: two points 100 apart in a 300×100 widget; the right one
+	// carries a 90-wide label on its right, every point needs 10 elsewhere.
+	// Horizontally 10 + 100·z + 90 ≤ 300 gives z = 2; vertically one row, so
+	// the zoom is 2 and the points sit at x = 10 and x = 210.
+	pts := []Pt{{0, 0}, {100, 0}}
+	ext := []Extent{{10, 10, 10, 10}, {10, 90, 10, 10}}
+	v := FitExtents(pts, ext, 300, 100, 48, 1)
+	if math.Abs(v.Zoom-2) > 1e-9 {
+		t.Fatalf("zoom %v, want 2", v.Zoom)
+	}
+	a, b := v.ToScreen(pts[0]), v.ToScreen(pts[1])
+	if math.Abs(a.X-10) > 1e-6 || math.Abs(b.X-210) > 1e-6 || math.Abs(a.Y-50) > 1e-6 {
+		t.Fatalf("points at %v and %v, want x 10 and 210, y 50", a, b)
+	}
+	// every box stays inside on random points with random extents
+	rng := rand.New(rand.NewPCG(3, 4))
+	for trial := 0; trial < 50; trial++ {
+		n := 1 + rng.IntN(40)
+		pts, ext := make([]Pt, n), make([]Extent, n)
+		for i := range pts {
+			pts[i] = Pt{rng.Float64() * 1000, rng.Float64() * 300}
+			ext[i] = Extent{8, 8 + rng.Float64()*120, 8 + rng.Float64()*20, 8}
+		}
+		const w, h = 800, 500
+		v := FitExtents(pts, ext, w, h, 48, 1)
+		tight := false
+		for i, p := range pts {
+			s := v.ToScreen(p)
+			if s.X-ext[i].L < -1e-6 || s.X+ext[i].R > w+1e-6 || s.Y-ext[i].T < -1e-6 || s.Y+ext[i].B > h+1e-6 {
+				t.Fatalf("trial %d: point %d at %v with extent %v leaves the widget", trial, i, s, ext[i])
+			}
+			if s.X-ext[i].L < 1e-3 || s.X+ext[i].R > w-1e-3 || s.Y-ext[i].T < 1e-3 || s.Y+ext[i].B > h-1e-3 {
+				tight = true
+			}
+		}
+		if n > 1 && !tight {
+			t.Fatalf("trial %d: nothing touches the edge, the zoom %v could be larger", trial, v.Zoom)
+		}
+	}
+	// a widget narrower than two labels (10 + 90 > 80), or one where the
+	// labels would more than halve the zoom, falls back to the plain fit
+	for _, w := range []float64{80, 120} {
+		if got, want := FitExtents(pts[:2], ext[:2], w, 100, 20, 1), Fit(Bounds(pts[:2]), w, 100, 20, 1); got != want {
+			t.Fatalf("width %v: fallback %v, want %v", w, got, want)
+		}
+	}
+}
+
+func TestTidyAspectRatio(t *testing.T) {
+	bbox := func(p []Pt) (w, h float64) {
+		b := Bounds(p)
+		return b.Max.X - b.Min.X, b.Max.Y - b.Min.Y
+	}
+	// a 2,000-junction random tree has about 1,000 leaves on a few rows:
+	// without the stretch it is over 30 times wider than high
+	n := 2000
+	edges := randomTree(n, 11)
+	p := Tidy(n, edges, 0)
+	w, h := bbox(p)
+	if !(h > 0) || w/h > TidyAspect+1e-9 || w/h < TidyAspect/4 {
+		t.Fatalf("2,000-node tree drawn %.0f × %.0f (ratio %.2f), want at most %.2f and not a tall strip", w, h, w/h, TidyAspect)
+	}
+	if md := minDist(p); md < MedianLen(edges)/2-1e-9 {
+		t.Fatalf("two nodes %.3g apart after the stretch", md)
+	}
+	// a wide star (one row of 40 leaves) becomes a fan; a path stays as it is
+	p = Tidy(41, starTree(41), 0)
+	if w, h := bbox(p); w/h > TidyAspect+1e-9 {
+		t.Fatalf("star drawn %.0f × %.0f", w, h)
+	}
+	p = Tidy(5, pathTree(5), 0)
+	if w, h := bbox(p); w != 0 || h != 40 {
+		t.Fatalf("path drawn %v × %v, want 0 × 40", w, h)
+	}
+}

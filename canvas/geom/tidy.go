@@ -28,6 +28,10 @@ func MedianLen(edges []Edge) float64 {
 	return ls[len(ls)/2]
 }
 
+// TidyAspect is the largest width:height ratio of a Tidy layout (about a
+// desktop canvas's shape); narrower trees keep their natural row gaps.
+const TidyAspect = 1.5
+
 // Tidy returns a layered layout of the graph with n nodes, drawn downwards
 // from root (root at the origin). All nodes with the same number of corridors
 // from the root share a row; the gap above a row is the median length of the
@@ -35,6 +39,13 @@ func MedianLen(edges []Edge) float64 {
 // lengths are roughly reflected while rows stay readable. Leaves take
 // consecutive columns one median length apart in depth-first order, and every
 // inner node is centred over its first and last child.
+//
+// A tree much wider than deep (a 2,000-junction generated site has about
+// 1,000 leaves over a dozen rows) is stretched vertically, every row gap by
+// the same factor, until its width is at most TidyAspect × its height, so
+// that a fitted view uses the canvas instead of drawing a flat strip.
+// Stretching one axis keeps every property below (it maps segments to
+// segments and never brings two points closer).
 //
 // The subtrees of two siblings occupy disjoint column ranges and rows keep
 // their order, so no two nodes are closer than half the median length and no
@@ -146,6 +157,19 @@ func Tidy(n int, edges []Edge, root int) []Pt {
 		sort.Float64s(ls)
 		gap := math.Max(unit/2, math.Min(3*unit, ls[len(ls)/2]))
 		rowY[k] = rowY[k-1] + gap
+	}
+	// a wide tree (many leaves, few rows) would be one flat strip: stretch the
+	// rows until the drawing is no wider than TidyAspect × its height
+	xmin, xmax := math.Inf(1), math.Inf(-1)
+	for v := range pos {
+		xmin, xmax = math.Min(xmin, pos[v].X), math.Max(xmax, pos[v].X)
+	}
+	if len(rowLens) > 1 && rowY[len(rowLens)-1] > 0 && xmax-xmin > TidyAspect*rowY[len(rowLens)-1] {
+		h := rowY[len(rowLens)-1]
+		f := (xmax - xmin) / (TidyAspect * h)
+		for k := range rowY {
+			rowY[k] *= f
+		}
 	}
 	for v := range pos {
 		pos[v].Y = rowY[level[v]]
