@@ -9,7 +9,11 @@ disp=:$((90 + RANDOM % 9))
 Xvfb "$disp" -screen 0 1400x900x24 -nolisten tcp >/tmp/duosweep-xvfb.log 2>&1 &
 xpid=$!
 home=$(mktemp -d)
-cleanup() { kill "${apid:-}" 2>/dev/null || true; kill "$xpid" 2>/dev/null || true; rm -rf "$home"; }
+cleanup() {
+  if [ -n "${apid:-}" ]; then kill "$apid" 2>/dev/null || true; wait "$apid" 2>/dev/null || true; fi
+  kill "$xpid" 2>/dev/null || true
+  rm -rf "$home" 2>/dev/null || true
+}
 trap cleanup EXIT
 sleep 2
 # a fresh HOME keeps the smoke test away from the user's preferences and recovery file

@@ -93,20 +93,22 @@ func (a *App) planPanel() fyne.CanvasObject {
 	w.incomplete.Importance = widget.DangerImportance
 	w.incomplete.Hide()
 
+	// the figures come first, right under the choices that produce them, so the
+	// worst case, bound and gap are visible without scrolling
 	top := container.NewVBox(
 		choices,
 		container.NewBorder(nil, nil, nil, w.busyLabel, w.busyBar),
-		a.searchPanel(),
 		w.errBox,
 		w.emptyHint,
 		w.figures,
 		w.incomplete,
+		a.searchPanel(),
 		a.legend(),
 	)
 	hint := widget.NewLabelWithStyle("Candidates: click a header to sort, a row to replay that exit", fyne.TextAlignLeading, fyne.TextStyle{Italic: true})
 	hint.Truncation = fyne.TextTruncateEllipsis
 	split := container.NewVSplit(container.NewVScroll(top), container.NewBorder(hint, nil, nil, nil, a.candidateTable()))
-	split.Offset = 0.62
+	split.Offset = 0.68
 	return split
 }
 
