@@ -333,9 +333,12 @@ func (a *App) finishSearch(res *searchResult) {
 	}
 	sw.resVal.SetText(fmt.Sprintf("%s: %s, gap %s%s", name, projects.FormatDuration(res.report.Worst), gapText(res.report), proof))
 	gain := res.baseR.Worst - res.report.Worst
+	better := engine.Better(res.report, res.baseR)
 	switch {
 	case gain > 1e-9*math.Max(1, res.baseR.Worst):
 		sw.verdict.SetText(fmt.Sprintf("%.1f s (%.1f %%) shorter worst case than the published plan.", gain, 100*gain/res.baseR.Worst))
+	case better:
+		sw.verdict.SetText(fmt.Sprintf("Same worst case, %.1f s shorter expected time than the published plan.", res.baseR.Expected-res.report.Expected))
 	default:
 		sw.verdict.SetText("No shorter worst case found: the published plan stands.")
 	}
@@ -344,8 +347,13 @@ func (a *App) finishSearch(res *searchResult) {
 		note = fmt.Sprintf("Cancelled after %.1f s: the best plan found so far. ", res.elapsed.Seconds()) + note
 	}
 	sw.note.SetText(note)
-	sw.use.SetText("Use this plan")
-	sw.use.Enable()
+	if better {
+		sw.use.SetText("Use this plan")
+		sw.use.Enable()
+	} else {
+		sw.use.SetText("Nothing better")
+		sw.use.Disable()
+	}
 	sw.result.Show()
 }
 

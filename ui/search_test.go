@@ -41,6 +41,12 @@ func (h *harness) waitForSearchProgress() {
 }
 
 func TestSearchNeverWorseThanPublishedAndUseThisPlan(t *testing.T) {
+	used := 0
+	defer func() {
+		if used == 0 && !t.Failed() {
+			t.Error("the search found nothing better on the demo under either model: the Use path went untested")
+		}
+	}()
 	for _, m := range engine.Models {
 		t.Run(m.String(), func(t *testing.T) {
 			h := newHarness(t, "")
@@ -85,7 +91,15 @@ func TestSearchNeverWorseThanPublishedAndUseThisPlan(t *testing.T) {
 			if !near(a.report.Worst, br.Worst) {
 				t.Fatalf("current worst %v before Use, want the published %v", a.report.Worst, br.Worst)
 			}
+			if !engine.Better(r, br) {
+				// nothing better found: nothing to use
+				if !a.w.search.use.Disabled() {
+					t.Fatal("Use this plan offered although the search found nothing better")
+				}
+				return
+			}
 			test.Tap(a.w.search.use)
+			used++
 			if a.plan != res.plan {
 				t.Fatal("Use this plan did not make the searched plan current")
 			}
