@@ -12,6 +12,7 @@ import (
 	"flag"
 	"fmt"
 	"os"
+	"runtime"
 
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/app"
@@ -28,6 +29,12 @@ func main() {
 	if flag.NArg() > 1 {
 		flag.Usage()
 		os.Exit(2)
+	}
+	if runtime.GOOS == "linux" && os.Getenv("DISPLAY") == "" && os.Getenv("WAYLAND_DISPLAY") == "" {
+		// without a display the windowing library panics deep inside; say what is wrong instead
+		fmt.Fprintln(os.Stderr, "duosweep: no display (DISPLAY and WAYLAND_DISPLAY are unset): run it in a desktop session, "+
+			"or under a virtual display, e.g. `xvfb-run -a duosweep`; the batch tool duosweep-cli needs no display")
+		os.Exit(1)
 	}
 	a := app.NewWithID("app.duosweep.planner")
 	a.SetIcon(icons.App)
