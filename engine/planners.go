@@ -60,6 +60,11 @@ type registered struct {
 
 var registry = map[string]registered{}
 
+// floors holds, for some planners, a proven lower bound on the worst case of
+// every plan the planner can make (under either model), so that BestPlan can
+// skip a planner that cannot beat the best plan found so far.
+var floors = map[string]func(s *Site) float64{}
+
 func register(info PlannerInfo, fn plannerFunc) {
 	if _, dup := registry[info.Name]; dup {
 		panic("engine: planner registered twice: " + info.Name)
@@ -129,6 +134,9 @@ func BestPlan(ctx context.Context, s *Site, m Model) (*Plan, *Report, error) {
 	for _, info := range Planners() {
 		if info.Search {
 			continue
+		}
+		if f, ok := floors[info.Name]; ok && bestR != nil && f(s) > bestR.Worst*(1+1e-9) {
+			continue // cannot beat (or tie) the best so far
 		}
 		// plans made for m first, so that they win ties; on large sites
 		// only those, to keep planning near-linear

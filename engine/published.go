@@ -3,12 +3,20 @@ package engine
 import (
 	"context"
 	"fmt"
+	"math"
 )
 
 func init() {
 	register(PlannerInfo{Name: "together", Models: Models,
 		Summary: "both walk one depth-first tour together, the branch with the farthest junction last (worst ≤ 2W − L)"},
 		planTogether)
+	// Both agents walk one walk from the start that reaches every candidate,
+	// so the last candidate is first reached after at least 2W − L (the
+	// shortest such walk ends at the farthest candidate), at the faster speed.
+	floors["together"] = func(s *Site) float64 {
+		b := ComputeBounds(s)
+		return (2*b.W - b.L) / math.Max(s.Speed[0], s.Speed[1])
+	}
 	register(PlannerInfo{Name: "opposite-tours", Models: Models,
 		Summary: "one walks a depth-first tour forwards, the other the same tour backwards; they meet at its midpoint (radio: worst ≤ 1.5·W; face to face, with a rendezvous at the midpoint: worst ≤ 2W)"},
 		planOpposite)

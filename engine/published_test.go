@@ -117,3 +117,34 @@ func TestPublishedGuaranteesSmoke(t *testing.T) {
 	})
 	t.Logf("max worst/LB: %v", worstRatio)
 }
+
+// TestTogetherFloor checks the bound BestPlan uses to skip the together
+// planner: no together plan is faster than (2W − L) / faster speed.
+func TestTogetherFloor(t *testing.T) {
+	forEachPublishedPlan(t, 300, 26, func(seed uint64, s *Site, info PlannerInfo, m Model, p *Plan, r *Report) {
+		if info.Name != "together" || len(s.Candidates()) == 0 {
+			return
+		}
+		require.GreaterOrEqual(t, r.Worst, floors["together"](s)*(1-1e-9), "seed %d %s", seed, m)
+	})
+	// unequal speeds
+	for seed := uint64(1); seed <= 300; seed++ {
+		sc := randomScenario(seed, 2+int(seed%25))
+		sc.Agents = []Agent{{Name: "A", Speed: 1}, {Name: "B", Speed: 1.7}}
+		if seed%2 == 0 {
+			sc.Agents[0].Speed, sc.Agents[1].Speed = 1.7, 1
+		}
+		s, err := NewSite(sc)
+		require.NoError(t, err)
+		if len(s.Candidates()) == 0 {
+			continue
+		}
+		for _, m := range Models {
+			p, err := MakePlan(context.Background(), s, "together", m, Options{})
+			require.NoError(t, err)
+			r, err := Evaluate(s, p, m)
+			require.NoError(t, err)
+			require.GreaterOrEqual(t, r.Worst, floors["together"](s)*(1-1e-9), "unequal speeds, seed %d %s", seed, m)
+		}
+	}
+}
