@@ -36,6 +36,13 @@ func main() {
 			"or under a virtual display, e.g. `xvfb-run -a duosweep`; the batch tool duosweep-cli needs no display")
 		os.Exit(1)
 	}
+	defer func() {
+		// a display that cannot be opened makes the windowing library panic
+		if r := recover(); r != nil {
+			fmt.Fprintf(os.Stderr, "duosweep: cannot open a window on display %q: %v\n", os.Getenv("DISPLAY"), r)
+			os.Exit(1)
+		}
+	}()
 	a := app.NewWithID("app.duosweep.planner")
 	a.SetIcon(icons.App)
 	w := a.NewWindow("Duosweep")
