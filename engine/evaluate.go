@@ -117,7 +117,7 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 	for v := 0; v < s.N; v++ {
 		if s.Candidate[v] {
 			row[v] = int32(len(r.Exits))
-			r.Exits = append(r.Exits, exitResult(s, trs, fv, v, m))
+			r.Exits = append(r.Exits, exitResult(fv, v))
 		}
 	}
 	// Per finder, in order of discovery: under radio the partner's position
@@ -167,7 +167,7 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 
 // exitFull is exitResult with the evacuation time worked out.
 func exitFull(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) ExitResult {
-	ex := exitResult(s, trs, fv, x, m)
+	ex := exitResult(fv, x)
 	if ex.Finder != 0 && ex.Finder != 1 {
 		return ex
 	}
@@ -184,7 +184,7 @@ func exitFull(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) Exit
 
 // exitResult finds t(x) and the finder; for a single finder the evacuation
 // time is left to the caller (EvacAt stays +Inf).
-func exitResult(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) ExitResult {
+func exitResult(fv [2][]float64, x int) ExitResult {
 	t0, t1 := fv[0][x], fv[1][x]
 	t := math.Min(t0, t1)
 	ex := ExitResult{Node: x, FoundAt: t, EvacAt: math.Inf(1), MeetAt: math.Inf(1), MeetPoint: At(x)}
