@@ -137,27 +137,22 @@ func (e *Editor) connected(a, b, skip int) bool {
 }
 
 // Undo restores the scenario before the last edit; false when there is none.
-func (e *Editor) Undo() bool {
-	if len(e.undo) == 0 {
-		return false
-	}
-	h := e.undo[len(e.undo)-1]
-	e.undo[len(e.undo)-1] = histEntry{}
-	e.undo = e.undo[:len(e.undo)-1]
-	e.redo = append(e.redo, histEntry{name: h.name, sc: e.sc})
-	e.install(h.sc)
-	return true
-}
+func (e *Editor) Undo() bool { return e.travel(&e.undo, &e.redo) }
 
 // Redo re-applies the last undone edit; false when there is none.
-func (e *Editor) Redo() bool {
-	if len(e.redo) == 0 {
+func (e *Editor) Redo() bool { return e.travel(&e.redo, &e.undo) }
+
+// travel pops the newest entry of from, pushes the current scenario onto to
+// under the same name, and installs the popped scenario.
+func (e *Editor) travel(from, to *[]histEntry) bool {
+	n := len(*from)
+	if n == 0 {
 		return false
 	}
-	h := e.redo[len(e.redo)-1]
-	e.redo[len(e.redo)-1] = histEntry{}
-	e.redo = e.redo[:len(e.redo)-1]
-	e.undo = append(e.undo, histEntry{name: h.name, sc: e.sc})
+	h := (*from)[n-1]
+	(*from)[n-1] = histEntry{}
+	*from = (*from)[:n-1]
+	*to = append(*to, histEntry{name: h.name, sc: e.sc})
 	e.install(h.sc)
 	return true
 }

@@ -66,6 +66,20 @@ func benchSite(b *testing.B, n int) *engine.Site {
 	return s
 }
 
+// freshSite builds a new site from sc with the benchmark timer stopped, so
+// that nothing cached on a site (bounds, child lists) carries over between
+// iterations and the build itself is not measured.
+func freshSite(b *testing.B, sc engine.Scenario) *engine.Site {
+	b.Helper()
+	b.StopTimer()
+	defer b.StartTimer()
+	s, err := engine.NewSite(sc)
+	if err != nil {
+		b.Fatal(err)
+	}
+	return s
+}
+
 func perNode(b *testing.B, n int) {
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(n), "ns/node")
 }
@@ -121,13 +135,7 @@ func BenchmarkComputeBounds(b *testing.B) {
 			sc := benchTree(n)
 			b.ResetTimer()
 			for i := 0; i < b.N; i++ {
-				b.StopTimer()
-				s, err := engine.NewSite(sc)
-				if err != nil {
-					b.Fatal(err)
-				}
-				b.StartTimer()
-				_ = engine.ComputeBounds(s)
+				_ = engine.ComputeBounds(freshSite(b, sc))
 			}
 			perNode(b, n)
 		})
@@ -150,13 +158,7 @@ func BenchmarkPlanner(b *testing.B) {
 					sc := benchTree(n)
 					b.ResetTimer()
 					for i := 0; i < b.N; i++ {
-						b.StopTimer()
-						s, err := engine.NewSite(sc)
-						if err != nil {
-							b.Fatal(err)
-						}
-						b.StartTimer()
-						if _, err := engine.MakePlan(context.Background(), s, info.Name, m, engine.Options{}); err != nil {
+						if _, err := engine.MakePlan(context.Background(), freshSite(b, sc), info.Name, m, engine.Options{}); err != nil {
 							b.Fatal(err)
 						}
 					}
@@ -225,15 +227,6 @@ func BenchmarkEvaluate(b *testing.B) {
 // evaluates each plan, then the winner under the other model). Compare with
 // BenchmarkLoadAndValidate in the same run.
 func BenchmarkPlanAndEvaluateBoth(b *testing.B) {
-	fresh := func(b *testing.B, n int) *engine.Site {
-		b.StopTimer()
-		defer b.StartTimer()
-		s, err := engine.NewSite(benchTree(n))
-		if err != nil {
-			b.Fatal(err)
-		}
-		return s
-	}
 	for _, n := range benchSizes {
 		for _, info := range engine.Planners() {
 			if info.Search {
@@ -244,7 +237,7 @@ func BenchmarkPlanAndEvaluateBoth(b *testing.B) {
 				skipIfSlow(b, family, n)
 				b.ResetTimer()
 				for i := 0; i < b.N; i++ {
-					s := fresh(b, n)
+					s := freshSite(b, benchTree(n))
 					p, err := engine.MakePlan(context.Background(), s, info.Name, info.Models[0], engine.Options{})
 					if err != nil {
 						b.Fatal(err)
@@ -261,7 +254,7 @@ func BenchmarkPlanAndEvaluateBoth(b *testing.B) {
 			skipIfSlow(b, "plan+evaluate best", n)
 			b.ResetTimer()
 			for i := 0; i < b.N; i++ {
-				s := fresh(b, n)
+				s := freshSite(b, benchTree(n))
 				for _, m := range engine.Models {
 					p, _, err := engine.BestPlan(context.Background(), s, m)
 					if err != nil {
