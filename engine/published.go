@@ -78,7 +78,7 @@ func pickBest(ctx context.Context, s *Site, m Model, plans []*Plan) (*Plan, erro
 // lastNewCandidate returns the walk index at which the last candidate is
 // first reached (0 when there are none).
 func lastNewCandidate(s *Site, w *Walk) int {
-	seen := make(map[int]bool)
+	seen := make([]bool, s.N)
 	last := 0
 	for i, v := range w.Nodes {
 		if s.Candidate[v] && !seen[v] {
