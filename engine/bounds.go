@@ -9,11 +9,14 @@ type Bounds struct {
 	L2  float64 // largest distance of a candidate from the path P to the farthest candidate
 	LB1 float64 // = W (a length)
 	LB2 float64 // = L + 2·L2 (a length)
-	LB  float64 // max(LB1, LB2) divided by the faster speed: a time
+	LB3 float64 // the last-discovery cover bound (lb3.go, docs/lower-bound.md): a time; 0 when not computed
+	LB  float64 // max(LB1/v, LB2/v, LB3) with v the faster speed: a time
 	Far int     // the farthest candidate (end of P); ties go to the lowest index; the start without candidates
 }
 
-// ComputeBounds returns the lower bounds of s. O(n); the result is cached on the site.
+// ComputeBounds returns the lower bounds of s. W, L, L2, LB1 and LB2 take
+// O(n); LB3 takes O(n·K²) with K = 64 the cap on its frontiers, and is left
+// out (0) above LargeSite search-tree nodes. The result is cached on the site.
 func ComputeBounds(s *Site) Bounds {
 	s.boundsOnce.Do(func() { s.bounds = computeBounds(s) })
 	return s.bounds
@@ -46,7 +49,9 @@ func computeBounds(s *Site) Bounds {
 	}
 	b.LB1 = b.W
 	b.LB2 = b.L + 2*b.L2
-	b.LB = math.Max(b.LB1, b.LB2) / math.Max(s.Speed[0], s.Speed[1])
+	lb12 := math.Max(b.LB1, b.LB2) / math.Max(s.Speed[0], s.Speed[1])
+	b.LB3 = lb3(s, lb12)
+	b.LB = math.Max(lb12, b.LB3)
 	return b
 }
 

@@ -21,7 +21,8 @@
 //     first rendezvous at or after t(x); then both walk to x). The worst case,
 //     worst exit, expected time, lower bounds and certified gap come with it.
 //   - ComputeBounds gives W, L, L2, LB1 = W, LB2 = L + 2·L2 and the time bound
-//     LB = max(LB1, LB2) / (faster speed).
+//     LB = max(LB1/v, LB2/v, LB3) with v the faster speed, where LB3 is the
+//     last-discovery cover bound of lb3.go (docs/lower-bound.md).
 //   - Planners are registered by name: together, opposite-tours, spine-split,
 //     hub-rendezvous, and the search planners exhaustive and improve.
 //     MakePlan runs one; BestPlan runs every non-search planner for a model

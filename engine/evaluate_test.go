@@ -135,13 +135,15 @@ func TestStar113OppositeTours(t *testing.T) {
 // or more leaves finds its second leaf at time 3 while the partner is at
 // least 1 away from the start: evac ≥ 3 + 2 = 5. With 2+2 splits every
 // evac is 1 + 2 = 3 (first leaves) or 3 + 2 = 5 (second leaves), so 5 is
-// achieved; MODEL.md §5 states 5 is the best worst case.
+// achieved; MODEL.md §5 states 5 is the best worst case, and LB3
+// (docs/lower-bound.md: the last leaf found is x; the other three split 2–1,
+// so one agent's walk to x covers 3 and is 2·3 − 1 = 5 long) proves it.
 func TestStar1111Family(t *testing.T) {
 	s := mustSite(t, testtrees.Star1111())
 	S := idx(t, s, "s")
 	leaves := []int{idx(t, s, "a"), idx(t, s, "b"), idx(t, s, "c"), idx(t, s, "d")}
-	if lb := engine.ComputeBounds(s).LB; lb != 4 {
-		t.Fatalf("LB %v, want 4", lb)
+	if b := engine.ComputeBounds(s); b.LB1 != 4 || b.LB3 != 5 || b.LB != 5 {
+		t.Fatalf("LB1 %v, LB3 %v, LB %v; want 4, 5, 5", b.LB1, b.LB3, b.LB)
 	}
 	route := func(order []int, back bool) engine.Route {
 		var r engine.Route
@@ -332,7 +334,12 @@ func TestRendezvousTruncation(t *testing.T) {
 // (speed 1): B is at 2τ ≤ 6, d = 2+2τ > τ−2 until B stops at y at 3; then
 // 8 ≤ τ−2 at τ = 10, both walk 8 to x, the slower taking 8: evac 18. y,
 // finder B (speed 2): A sits at x, 8 ≤ 2(τ−3) at τ = 7, then A needs 8:
-// evac 15. LB = max(W = 8, L + 2·L2 = 6 + 4) / faster speed 2 = 5.
+// evac 15. max(W = 8, L + 2·L2 = 6 + 4) / faster speed 2 = 5; LB3
+// (docs/lower-bound.md) is 6: with y found last, A (speed 1) must walk 6 to
+// it; with x last, the agent that also takes y covers 8 and walks 2·8 − 2,
+// at best B: 14/2 = 7. The plan "A straight to y, B to x then y" reaches 6
+// (y found by B at 5, A there at 6; x found at 1, A 3 away: 4), so LB = 6 is
+// the optimum.
 func TestUnequalSpeeds(t *testing.T) {
 	sc := testtrees.Star(2, 6)
 	sc.Agents = []engine.Agent{{Name: "A", Speed: 1}, {Name: "B", Speed: 2}}
@@ -347,8 +354,15 @@ func TestUnequalSpeeds(t *testing.T) {
 	wantExit(t, r, y, 3, 1, 11)
 	wantExit(t, f, x, 2, 0, 18)
 	wantExit(t, f, y, 3, 1, 15)
-	if r.Worst != 11 || f.Worst != 18 || r.Bounds.LB != 5 {
-		t.Errorf("worst radio %v, face-to-face %v, LB %v; want 11, 18, 5", r.Worst, f.Worst, r.Bounds.LB)
+	if r.Worst != 11 || f.Worst != 18 || r.Bounds.LB != 6 || r.Bounds.LB3 != 6 {
+		t.Errorf("worst radio %v, face-to-face %v, LB %v (LB3 %v); want 11, 18, 6", r.Worst, f.Worst, r.Bounds.LB, r.Bounds.LB3)
+	}
+	opt := &engine.Plan{Routes: [2]engine.Route{
+		{Waypoints: []engine.Waypoint{wp(engine.At(y), 6)}},
+		{Waypoints: []engine.Waypoint{wp(engine.At(x), 1), wp(engine.At(y), 5)}},
+	}}
+	if o, _ := evalBoth(t, s, opt); o.Worst != 6 {
+		t.Errorf("the optimal plan: radio worst %v, want 6 = LB", o.Worst)
 	}
 	// B asked to reach y by 2.9 would need speed 6/2.9 > 2: refused.
 	bad := &engine.Plan{Routes: [2]engine.Route{p.Routes[0], {Waypoints: []engine.Waypoint{wp(engine.At(y), 2.9)}}}}

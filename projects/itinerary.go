@@ -87,7 +87,7 @@ func WriteItinerary(w io.Writer, s *engine.Site, p *engine.Plan, r *engine.Repor
 	} else {
 		pf("Worst case:     no candidates\n")
 	}
-	pf("Lower bound:    %s (LB1 = W = %.1f %s, LB2 = L + 2·L2 = %.1f %s)\n", formatSeconds(r.Bounds.LB), r.Bounds.LB1, s.Unit(), r.Bounds.LB2, s.Unit())
+	pf("Lower bound:    %s (LB1 = W = %.1f %s, LB2 = L + 2·L2 = %.1f %s%s)\n", formatSeconds(r.Bounds.LB), r.Bounds.LB1, s.Unit(), r.Bounds.LB2, s.Unit(), lb3Text(r.Bounds.LB3))
 	if math.IsInf(r.Gap, 0) || math.IsNaN(r.Gap) {
 		pf("Certified gap:  none (the plan is incomplete)\n")
 	} else {
@@ -202,4 +202,12 @@ func agentSteps(s *engine.Site, wps []engine.Waypoint, a int) []step {
 	}
 	out = append(out, step{t: t, text: fmt.Sprintf("end of route: stay at %s", pointName(s, cur))})
 	return out
+}
+
+// lb3Text is the cover-split bound for the itinerary's lower-bound line.
+func lb3Text(lb3 float64) string {
+	if lb3 <= 0 {
+		return ""
+	}
+	return ", cover split LB3 = " + formatSeconds(lb3)
 }

@@ -72,6 +72,7 @@ type outBounds struct {
 type outLowerBounds struct {
 	LB1 float64 `json:"LB1"`
 	LB2 float64 `json:"LB2"`
+	LB3 float64 `json:"LB3"` // a time (s), 0 when not computed
 }
 
 type outRouteLength struct {
@@ -125,7 +126,7 @@ func routesOut(s *engine.Site, p *engine.Plan) []outRoute {
 
 // WriteReport writes the plan report of FORMATS.md ("duosweep-report",
 // version 1) for plan p evaluated as r on site s. Beyond the fixed fields it
-// writes scenario, unit, note, lower_bounds {LB1, LB2}, unvisited and
+// writes scenario, unit, note, lower_bounds {LB1, LB2 (lengths), LB3 (a time)}, unvisited and
 // route_lengths. Infinite times (incomplete plans) are written as null.
 func WriteReport(w io.Writer, s *engine.Site, p *engine.Plan, r *engine.Report) error {
 	planner := r.Planner
@@ -156,7 +157,7 @@ func WriteReport(w io.Writer, s *engine.Site, p *engine.Plan, r *engine.Report) 
 	if r.HasExpected {
 		o.Expected = finiteOrNil(r.Expected)
 	}
-	o.LowerBounds = outLowerBounds{LB1: r.Bounds.LB1, LB2: r.Bounds.LB2}
+	o.LowerBounds = outLowerBounds{LB1: r.Bounds.LB1, LB2: r.Bounds.LB2, LB3: r.Bounds.LB3}
 	for _, v := range r.Unvisited {
 		o.Unvisited = append(o.Unvisited, s.IDs[v])
 	}

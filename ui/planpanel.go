@@ -184,7 +184,11 @@ func (a *App) refreshResults() {
 		w.worstExit.SetText("no candidates")
 	}
 	b := r.Bounds
-	w.lower.SetText(fmt.Sprintf("%s\nW = %.1f %s, L + 2·L2 = %.1f %s", fmtTime(b.LB), b.LB1, unit, b.LB2, unit))
+	lb3 := ""
+	if b.LB3 > 0 {
+		lb3 = "\nlast-find cover split " + fmtTime(b.LB3)
+	}
+	w.lower.SetText(fmt.Sprintf("%s\nW = %.1f %s, L + 2·L2 = %.1f %s%s", fmtTime(b.LB), b.LB1, unit, b.LB2, unit, lb3))
 	if math.IsInf(r.Worst, 1) {
 		w.gap.SetText("none (incomplete plan)")
 	} else {

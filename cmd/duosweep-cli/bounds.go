@@ -39,7 +39,12 @@ func runBounds(e *env, args []string) error {
 	fmt.Fprintf(w, "L2:                  %.2f %s (farthest candidate from the path to it)\n", b.L2, u)
 	fmt.Fprintf(w, "LB1 = W:             %.2f %s\n", b.LB1, u)
 	fmt.Fprintf(w, "LB2 = L + 2*L2:      %.2f %s\n", b.LB2, u)
-	fmt.Fprintf(w, "LB:                  %.2f s (%s) = max(LB1, LB2) / %g %s/s, the faster speed\n", b.LB, projects.FormatDuration(b.LB), speed, u)
+	if b.LB3 > 0 {
+		fmt.Fprintf(w, "LB3 (cover split):   %.2f s (the last find: both routes end there and share the tree; docs/lower-bound.md)\n", b.LB3)
+	} else {
+		fmt.Fprintf(w, "LB3 (cover split):   not computed (site too large for the exact split)\n")
+	}
+	fmt.Fprintf(w, "LB:                  %.2f s (%s) = max(LB1 / v, LB2 / v, LB3), v = %g %s/s the faster speed\n", b.LB, projects.FormatDuration(b.LB), speed, u)
 	fmt.Fprintf(w, "farthest candidate:  %s\n", nodeLabel(s, b.Far))
 	return nil
 }
