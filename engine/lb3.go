@@ -42,7 +42,7 @@ import (
 // past U are dropped, and the result is min(LB3 of the rest, U), still a
 // valid bound (covers only grow as they are summed).
 const (
-	lb3Work     = 1_000_000
+	lb3Work     = 2_000_000
 	lb3MaxNodes = 300
 	lb3Above    = 1.25
 )
@@ -143,7 +143,7 @@ func lb3At(d float64, g, f []fpt, speed [2]float64) float64 {
 
 type lb3Scratch struct {
 	capA, capB float64 // points with a ≥ capA or b ≥ capB are dropped
-	buf        []fpt
+	buf, tmp   []fpt
 	work       int  // point pairs summed so far
 	over       bool // the budget ran out
 }
@@ -166,19 +166,57 @@ func (sc *lb3Scratch) option(s *Site, c int, wsub []float64, F [][]fpt) []fpt {
 // is spent). A frontier may be empty: every cover of that part already
 // reaches the cap.
 func (sc *lb3Scratch) sum(p, q []fpt) []fpt {
+	if len(p) < len(q) {
+		p, q = q, p
+	}
 	sc.work += len(p) * len(q)
 	if sc.work > lb3Work {
 		sc.over = true
 		return nil
 	}
-	buf := sc.buf[:0]
-	for _, x := range p {
-		for _, y := range q {
-			buf = append(buf, fpt{x.a + y.a, x.b + y.b})
+	if len(q) == 0 {
+		return []fpt{}
+	}
+	// both are sorted by a with b falling: merge the shifted copies of p one
+	// by one, keeping only the frontier (no sort)
+	res := append(sc.buf[:0], p...)
+	for i := range res {
+		res[i] = fpt{res[i].a + q[0].a, res[i].b + q[0].b}
+	}
+	res = sc.capped(res)
+	tmp := sc.tmp[:0]
+	for _, y := range q[1:] {
+		tmp = tmp[:0]
+		i, j, minB := 0, 0, math.Inf(1)
+		for i < len(res) || j < len(p) {
+			var x fpt
+			if j >= len(p) || i < len(res) && (res[i].a < p[j].a+y.a || res[i].a == p[j].a+y.a && res[i].b <= p[j].b+y.b) {
+				x = res[i]
+				i++
+			} else {
+				x = fpt{p[j].a + y.a, p[j].b + y.b}
+				j++
+			}
+			if x.b < minB && x.a < sc.capA && x.b < sc.capB {
+				tmp = append(tmp, x)
+				minB = x.b
+			}
+		}
+		res, tmp = tmp, res
+	}
+	sc.buf, sc.tmp = res, tmp
+	return append([]fpt(nil), res...)
+}
+
+// capped drops, in place, the points of a frontier that reach the cap.
+func (sc *lb3Scratch) capped(f []fpt) []fpt {
+	out := f[:0]
+	for _, x := range f {
+		if x.a < sc.capA && x.b < sc.capB {
+			out = append(out, x)
 		}
 	}
-	sc.buf = buf
-	return sc.pareto(append([]fpt(nil), buf...))
+	return out
 }
 
 // pareto sorts pts by a and keeps the points no other point dominates

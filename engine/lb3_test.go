@@ -146,3 +146,30 @@ func TestLB3BelowExhaustive(t *testing.T) {
 	t.Logf("exhaustive's class optimum equals the lower bound on %d of %d runs with LB3, %d with max(LB1, LB2) alone", tight, total, tightOld)
 	require.Greater(t, tight, tightOld)
 }
+
+// Past its caps LB3 is left out (0) and LB is max(LB1, LB2)/v: a star with
+// more leaves than lb3MaxNodes, and a random tree that needs more work than
+// lb3Work.
+func TestLB3Caps(t *testing.T) {
+	legs := make([]float64, lb3MaxNodes+1)
+	for i := range legs {
+		legs[i] = float64(1 + i%7)
+	}
+	s := mustSite(t, star(legs...))
+	b := ComputeBounds(s)
+	require.Zero(t, b.LB3)
+	require.Equal(t, lb12(s), b.LB)
+	over := 0
+	for i := 0; i < 20; i++ {
+		sc := searchTree(uint64(9900+i), 150)
+		for k := range sc.Nodes {
+			sc.Nodes[k].Candidate = sc.Nodes[k].ID != sc.Start
+		}
+		s := mustSite(t, sc)
+		if ComputeBounds(s).LB3 == 0 {
+			over++
+			require.Equal(t, lb12(s), ComputeBounds(s).LB)
+		}
+	}
+	require.Positive(t, over, "no 150-node tree reached the work cap")
+}
