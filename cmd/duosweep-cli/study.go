@@ -286,7 +286,7 @@ func studyGaps(e *env, w io.Writer, hdr *studyHeader, fams []string, sizes []int
 	}
 	hdr.write(w, "Certified gaps: published planners and improve")
 	fmt.Fprintf(w, "Sites from `gen.Generate(family, n, seed)` for seeds 1..%d (integer corridor lengths 1..100, every node but the start a candidate, equal speeds). "+
-		"Gap = worst case / lower bound − 1 (MODEL.md §5), so 0%% means proven optimal. Each cell is mean / max over the seeds. "+
+		"Gap = worst case / lower bound − 1 (LB = max(LB1/v, LB2/v, LB3): MODEL.md §5 and docs/lower-bound.md), so 0%% means proven optimal. Each cell is mean / max over the seeds. "+
 		"improve ran with a %v budget and its seed set to the site's seed; time budgets make its results depend on the machine and its load.\n\n", seeds, b)
 	cols := append(append([]string{}, published...), "best published", "improve")
 	fmt.Fprintf(w, "| family | nodes | model | %s |\n|---|---:|---|%s\n", strings.Join(cols, " | "), strings.Repeat("---:|", len(cols)))
