@@ -38,11 +38,11 @@ import (
 // not at all (Bounds.LB3 = 0), and sites that need more are the large ones,
 // where an even split is nearly always possible and LB3 hardly exceeds W.
 // lb3MaxNodes is the largest search tree it is tried on, and lb3Above the
-// cap U = lb3Above·max(LB1, LB2)/v: frontier points that alone push the bound
+// cap U = lb3Above·max(LB1, LB2)/v_slower: frontier points that alone push the bound
 // past U are dropped, and the result is min(LB3 of the rest, U), still a
 // valid bound (covers only grow as they are summed).
 const (
-	lb3Work     = 2_000_000
+	lb3Work     = 250_000
 	lb3MaxNodes = 300
 	lb3Above    = 1.25
 )
@@ -61,7 +61,8 @@ func lb3(s *Site, lb12 float64) float64 {
 	if s.candidateCount() == 0 || n > lb3MaxNodes {
 		return 0
 	}
-	U := lb3Above * lb12
+	// lb12 is at the faster speed; LB3 charges each agent its own speed
+	U := lb3Above * lb12 * math.Max(s.Speed[0], s.Speed[1]) / math.Min(s.Speed[0], s.Speed[1])
 	sc := lb3Scratch{capA: U * s.Speed[0] / 2, capB: U * s.Speed[1] / 2}
 	// subtree lengths and cover frontiers, children before parents
 	wsub := make([]float64, s.N)
