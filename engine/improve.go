@@ -21,6 +21,11 @@ package engine
 // face to face also add, drop or move a rendezvous, or move a meeting item
 // within its list. Every candidate plan is scored by Evaluate.
 //
+// Before the annealing, a tour phase (toursearch.go) takes the first quarter
+// of the budget (or a quarter of the iteration cap, on top of it): local
+// search over depth-first tours with free child orders and a free cut point;
+// the annealing starts from its plan when that is better than the start.
+//
 // Acceptance is simulated annealing (Kirkpatrick, Gelatt and Vecchi, 1983):
 // a worse candidate is accepted with probability exp(−Δ/T), the temperature
 // T falling quadratically from 10% of the start score to zero over the budget
@@ -135,10 +140,29 @@ func ImproveFrom(ctx context.Context, s *Site, m Model, start *Plan, opt Options
 	} else if better(curR, bestR) {
 		bestP, bestR = curP, curR
 	}
-	curScore := im.score(curR)
-	if len(s.Candidates()) == 0 || math.IsInf(curScore, 1) {
+	if len(s.Candidates()) == 0 || math.IsInf(im.score(curR), 1) {
 		return im.finish(start, bestP, bestR, r0, res, t0), res, nil
 	}
+	// the tour phase (toursearch.go) takes the first quarter of the budget;
+	// the annealing goes on from its plan when that is better
+	tourIters, tourDeadline := 0, time.Time{}
+	if opt.Iterations > 0 {
+		tourIters = max(1, opt.Iterations/4)
+	}
+	if budget > 0 {
+		tourDeadline = t0.Add(budget / 4)
+	}
+	if tp, tr := im.tourPhase(ctx, tourIters, tourDeadline, &res); tr != nil && better(tr, bestR) {
+		bestP, bestR = tp, tr
+		ts := im.fromPlan(tp)
+		if cr, ok := im.eval(ts, &res); ok {
+			cur, curR = ts, cr
+			for a := 0; a < 2; a++ {
+				im.maxItems = max(im.maxItems, len(cur.list[a])+8)
+			}
+		}
+	}
+	curScore := im.score(curR)
 	t0Temp := 0.1 * curScore
 	best := cur.clone()
 	sinceBest, restarts := 0, 0
@@ -278,6 +302,9 @@ type improver struct {
 	anchors  []int // start, candidates, branch nodes of the search tree
 	cand     []int
 	maxItems int // longest list a move may make
+
+	tourNodes []int // search-tree nodes, parents first (the tour phase)
+	branch    []int // search-tree nodes with two or more children
 }
 
 func newImprover(s *Site, m Model, seed int64) *improver {

@@ -430,3 +430,31 @@ func BenchmarkImproveEvaluations(b *testing.B) {
 		}
 	}
 }
+
+// The tour phase of improve (toursearch.go) starts from the opposite-tours
+// plans, so it is never worse than that planner; on random 40-node trees it
+// is strictly better on most of them within 400 iterations, under both
+// models. Its plans are valid and complete (checked by Evaluate).
+func TestImproveTourPhase(t *testing.T) {
+	better, total := 0, 0
+	for i := 0; i < 12; i++ {
+		s := mustSite(t, searchTree(uint64(7700+i), 40))
+		for _, m := range Models {
+			ref, err := MakePlan(context.Background(), s, "opposite-tours", m, Options{})
+			require.NoError(t, err)
+			wRef := worstOf(t, s, ref, m)
+			im := newImprover(s, m, 1)
+			var res ImproveResult
+			p, r := im.tourPhase(context.Background(), 400, time.Time{}, &res)
+			require.NotNil(t, p)
+			require.Equal(t, r.Worst, worstOf(t, s, p, m))
+			require.LessOrEqual(t, r.Worst, wRef*(1+1e-12), "tree %d %s", i, m)
+			total++
+			if r.Worst < wRef*(1-1e-9) {
+				better++
+			}
+		}
+	}
+	t.Logf("the tour phase beat opposite-tours on %d of %d runs", better, total)
+	require.Greater(t, 2*better, total)
+}
