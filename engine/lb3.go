@@ -114,7 +114,9 @@ func lb3(s *Site, lb12 float64) float64 {
 		acc := G[v]
 		for i := range kids {
 			pre = append(pre, acc)
-			acc = sc.sum(acc, opts[i])
+			if i+1 < len(kids) {
+				acc = sc.sum(acc, opts[i])
+			}
 		}
 		suf := []fpt{{0, 0}}
 		for i := len(kids) - 1; i >= 0; i-- {
