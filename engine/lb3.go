@@ -64,9 +64,11 @@ func lb3(s *Site, lb12 float64) float64 {
 	// lb12 is at the faster speed; LB3 charges each agent its own speed
 	U := lb3Above * lb12 * math.Max(s.Speed[0], s.Speed[1]) / math.Min(s.Speed[0], s.Speed[1])
 	sc := lb3Scratch{capA: U * s.Speed[0] / 2, capB: U * s.Speed[1] / 2}
-	// subtree lengths and cover frontiers, children before parents
+	// subtree lengths, cover frontiers and each child's options, children
+	// before parents
 	wsub := make([]float64, s.N)
 	F := make([][]fpt, s.N)
+	opt := make([][]fpt, s.N)
 	for i := len(s.Order) - 1; i >= 0; i-- {
 		v := int(s.Order[i])
 		if !s.InSearch[v] {
@@ -78,7 +80,8 @@ func lb3(s *Site, lb12 float64) float64 {
 				continue
 			}
 			wsub[v] += wsub[c] + s.EW[s.ParentEdge[c]]
-			acc = sc.sum(acc, sc.option(s, int(c), wsub, F))
+			opt[c] = sc.option(s, int(c), wsub, F)
+			acc = sc.sum(acc, opt[c])
 		}
 		F[v] = acc
 		if sc.over {
@@ -107,7 +110,7 @@ func lb3(s *Site, lb12 float64) float64 {
 		for _, c := range s.Children(v) {
 			if s.InSearch[c] {
 				kids = append(kids, int(c))
-				opts = append(opts, sc.option(s, int(c), wsub, F))
+				opts = append(opts, opt[c])
 			}
 		}
 		// G(child i) = G(v) ⊕ options of every sibling: prefix and suffix sums
@@ -123,7 +126,7 @@ func lb3(s *Site, lb12 float64) float64 {
 			G[kids[i]] = sc.sum(pre[i], suf)
 			suf = sc.sum(suf, opts[i])
 		}
-		F[v], G[v] = nil, nil // no longer needed
+		F[v], G[v], opt[v] = nil, nil, nil // no longer needed
 	}
 	if sc.over {
 		return 0

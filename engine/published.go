@@ -124,21 +124,37 @@ func planOpposite(ctx context.Context, s *Site, m Model, _ Options) (*Plan, erro
 			if swap {
 				fw, bw = 1, 0
 			}
-			split := w.Len() * s.Speed[fw] / (s.Speed[0] + s.Speed[1])
 			p := &Plan{Note: fmt.Sprintf("%s walks the tour forwards, %s backwards, %s", s.Names[fw], s.Names[bw], o)}
-			f, b := newRoute(s, fw), newRoute(s, bw)
-			f.walkPrefix(s, w, split)
-			b.walkSuffixReversed(s, w, split)
+			p.Routes = oppositeRoutes(s, m, w, fw, balancedCut(s, w, fw))
 			if m == FaceToFace {
-				f.rendezvous()
-				b.rendezvous()
 				p.Note += "; rendezvous where they meet"
 			}
-			p.Routes[fw], p.Routes[bw] = f.route(), b.route()
 			plans = append(plans, p)
 		}
 	}
 	return pickBest(ctx, s, m, plans)
+}
+
+// balancedCut is the arclength along the closed tour w where the agent fw
+// walking forwards and the partner walking backwards arrive together.
+func balancedCut(s *Site, w *Walk, fw int) float64 {
+	return w.Len() * s.Speed[fw] / (s.Speed[0] + s.Speed[1])
+}
+
+// oppositeRoutes returns the routes of agent fw walking the closed tour w
+// forwards up to arclength cut and of the partner walking it backwards down
+// to cut; face to face both mark a rendezvous there.
+func oppositeRoutes(s *Site, m Model, w *Walk, fw int, cut float64) [2]Route {
+	f, b := newRoute(s, fw), newRoute(s, 1-fw)
+	f.walkPrefix(s, w, cut)
+	b.walkSuffixReversed(s, w, cut)
+	if m == FaceToFace {
+		f.rendezvous()
+		b.rendezvous()
+	}
+	var r [2]Route
+	r[fw], r[1-fw] = f.route(), b.route()
+	return r
 }
 
 // spineWalk is the walk down P that explores every side subtree as it

@@ -127,15 +127,21 @@ func (w *Walk) push(s *Site, v int) {
 }
 
 // appendTour appends the closed depth-first tour of the search subtree below
-// v (v itself is assumed to be the walk's current end), skipping children
-// for which skip returns true. Iterative: safe for deep trees.
+// v (v itself is assumed to be the walk's current end) in child order o,
+// skipping children of v for which skip returns true.
 func (s *Site) appendTour(w *Walk, v int, o ChildOrder, skip func(int) bool) {
+	s.appendTourWith(w, v, func(u int) []int { return s.SearchChildren(u, o) }, skip)
+}
+
+// appendTourWith is appendTour with the children of each node, in tour
+// order, given by children. Iterative: safe for deep trees.
+func (s *Site) appendTourWith(w *Walk, v int, children func(int) []int, skip func(int) bool) {
 	type frame struct {
 		v    int
 		kids []int
 		i    int
 	}
-	stack := []frame{{v: v, kids: s.SearchChildren(v, o)}}
+	stack := []frame{{v: v, kids: children(v)}}
 	for len(stack) > 0 {
 		f := &stack[len(stack)-1]
 		if f.i == len(f.kids) {
@@ -151,7 +157,7 @@ func (s *Site) appendTour(w *Walk, v int, o ChildOrder, skip func(int) bool) {
 			continue
 		}
 		w.push(s, c)
-		stack = append(stack, frame{v: c, kids: s.SearchChildren(c, o)})
+		stack = append(stack, frame{v: c, kids: children(c)})
 	}
 }
 

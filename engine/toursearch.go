@@ -23,13 +23,13 @@ import (
 )
 
 type tourState struct {
-	kids [][]int32 // search children of each node, in tour order
-	cut  float64   // arclength of the cut along the tour
-	fw   int       // the agent that walks forwards
+	kids [][]int // search children of each node, in tour order
+	cut  float64 // arclength of the cut along the tour
+	fw   int     // the agent that walks forwards
 }
 
 func (ts *tourState) clone() *tourState {
-	c := &tourState{kids: make([][]int32, len(ts.kids)), cut: ts.cut, fw: ts.fw}
+	c := &tourState{kids: make([][]int, len(ts.kids)), cut: ts.cut, fw: ts.fw}
 	copy(c.kids, ts.kids) // the per-node slices are copied on write
 	return c
 }
@@ -39,76 +39,54 @@ func (im *improver) tourWalk(ts *tourState) *Walk {
 	s := im.s
 	w := &Walk{Nodes: make([]int, 0, 2*len(im.tourNodes)), Arc: make([]float64, 0, 2*len(im.tourNodes))}
 	w.push(s, s.Start)
-	type frame struct {
-		v int32
-		i int
-	}
-	stack := []frame{{v: int32(s.Start)}}
-	for len(stack) > 0 {
-		f := &stack[len(stack)-1]
-		k := ts.kids[f.v]
-		if f.i == len(k) {
-			stack = stack[:len(stack)-1]
-			if len(stack) > 0 {
-				w.push(s, int(stack[len(stack)-1].v))
-			}
-			continue
-		}
-		c := k[f.i]
-		f.i++
-		w.push(s, int(c))
-		stack = append(stack, frame{v: c})
-	}
+	s.appendTourWith(w, s.Start, func(v int) []int { return ts.kids[v] }, nil)
 	return w
 }
 
+// tourPlan returns the plan of state ts and its tour.
 func (im *improver) tourPlan(ts *tourState) (*Plan, *Walk) {
-	s := im.s
 	w := im.tourWalk(ts)
-	f, b := newRoute(s, ts.fw), newRoute(s, 1-ts.fw)
-	f.walkPrefix(s, w, ts.cut)
-	b.walkSuffixReversed(s, w, ts.cut)
-	if im.m == FaceToFace {
-		f.rendezvous()
-		b.rendezvous()
-	}
-	p := &Plan{Planner: "improve", Model: im.m}
-	p.Routes[ts.fw], p.Routes[1-ts.fw] = f.route(), b.route()
-	return p, w
+	return im.tourPlanOn(ts, w), w
+}
+
+// tourPlanOn returns the plan of state ts on its tour w.
+func (im *improver) tourPlanOn(ts *tourState, w *Walk) *Plan {
+	return &Plan{Planner: "improve", Model: im.m, Routes: oppositeRoutes(im.s, im.m, w, ts.fw, ts.cut)}
 }
 
 // tourStart returns the best state over the child rules and directions
-// (the opposite-tours plans, with the balanced cut), stopping early at the
-// deadline or on cancellation (nil when not even one was scored).
-func (im *improver) tourStart(ctx context.Context, deadline time.Time, res *ImproveResult) (*tourState, *Plan, *Report) {
+// (the opposite-tours plans, with the balanced cut), with its plan, tour and
+// report, stopping early at the deadline or on cancellation (nil when not
+// even one was scored).
+func (im *improver) tourStart(ctx context.Context, deadline time.Time, res *ImproveResult) (*tourState, *Plan, *Walk, *Report) {
 	s := im.s
 	var best *tourState
 	var bestP *Plan
+	var bestW *Walk
 	var bestR *Report
 	for _, o := range s.orders(AllOrders) {
 		for fw := 0; fw < 2; fw++ {
 			if ctx.Err() != nil || !deadline.IsZero() && time.Now().After(deadline) {
-				return best, bestP, bestR
+				return best, bestP, bestW, bestR
 			}
-			ts := &tourState{kids: make([][]int32, s.N), fw: fw}
+			ts := &tourState{kids: make([][]int, s.N), fw: fw}
 			for _, v := range im.tourNodes {
-				for _, c := range s.SearchChildren(v, o) {
-					ts.kids[v] = append(ts.kids[v], int32(c))
-				}
+				ts.kids[v] = s.SearchChildren(v, o) // shared, never written: moves copy
 			}
-			ts.cut = 2 * ComputeBounds(s).W * s.Speed[fw] / (s.Speed[0] + s.Speed[1])
-			p, _ := im.tourPlan(ts)
+			w := im.tourWalk(ts)
+			ts.cut = balancedCut(s, w, fw)
+			p := im.tourPlanOn(ts, w)
 			r, err := Evaluate(s, p, im.m)
 			res.Evaluations++
 			if err != nil || !r.Complete {
 				continue
 			}
 			if bestR == nil || im.score(r) < im.score(bestR) {
-				best, bestP, bestR = ts, p, r
+				best, bestP, bestW, bestR = ts, p, w, r
 			}
 		}
 	}
-	return best, bestP, bestR
+	return best, bestP, bestW, bestR
 }
 
 // tourMutate returns a changed copy of ts (w is ts's tour), or nil.
@@ -135,7 +113,7 @@ func (im *improver) tourMutate(ts *tourState, w *Walk) *tourState {
 				v = path[rng.IntN(len(path))]
 			}
 		}
-		kv := append([]int32(nil), ts.kids[v]...)
+		kv := append([]int(nil), ts.kids[v]...)
 		i, j := rng.IntN(len(kv)), rng.IntN(len(kv))
 		if i == j {
 			return nil
@@ -147,7 +125,7 @@ func (im *improver) tourMutate(ts *tourState, w *Walk) *tourState {
 			return nil
 		}
 		v := im.branch[rng.IntN(len(im.branch))]
-		kv := append([]int32(nil), ts.kids[v]...)
+		kv := append([]int(nil), ts.kids[v]...)
 		for i, j := 0, len(kv)-1; i < j; i, j = i+1, j-1 {
 			kv[i], kv[j] = kv[j], kv[i]
 		}
@@ -179,11 +157,10 @@ func (im *improver) tourPhase(ctx context.Context, iters int, deadline time.Time
 			}
 		}
 	}
-	cur, curP, curR := im.tourStart(ctx, deadline, res)
+	cur, curP, curW, curR := im.tourStart(ctx, deadline, res)
 	if cur == nil {
 		return nil, nil
 	}
-	_, curW := im.tourPlan(cur)
 	bestP, bestR := curP, curR
 	curScore := im.score(curR)
 	for it := 0; iters <= 0 || it < iters; it++ {
