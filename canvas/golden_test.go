@@ -9,13 +9,11 @@ import (
 	"duosweep/engine"
 )
 
-// TestGoldenOverlay checks the structure of the drawing of a small site with
-// a selection, heat colours, the worst exit, a replayed exit, two agents with
-// trails, a meeting point and an unvisited candidate (light theme).
-func TestGoldenOverlay(t *testing.T) {
-	e, w, _ := newTestEditor(t, small())
-	e.Select(Selection{SelNode, 1})
-	e.SetOverlay(Overlay{
+// sampleOverlay is the overlay of the small test site drawn by the golden
+// and the picture test: heat colours, the worst exit, a replayed exit, two
+// agents with trails, a meeting point and an unvisited candidate.
+func sampleOverlay() Overlay {
+	return Overlay{
 		Evac: []float64{math.NaN(), 10, 30, 24}, EvacMax: 30, Worst: 2, Focus: 3,
 		Agents: []AgentMark{
 			{Name: "A", At: engine.Point{From: 1, To: 2, Offset: 4}, Trail: []engine.Point{engine.At(0), engine.At(1)}},
@@ -23,7 +21,16 @@ func TestGoldenOverlay(t *testing.T) {
 		},
 		Meeting:   &engine.Point{From: 1, To: 3, Offset: 10},
 		Unvisited: []int{3},
-	})
+	}
+}
+
+// TestGoldenOverlay checks the structure of the drawing of a small site with
+// a selection, heat colours, the worst exit, a replayed exit, two agents with
+// trails, a meeting point and an unvisited candidate (light theme).
+func TestGoldenOverlay(t *testing.T) {
+	e, w, _ := newTestEditor(t, small())
+	e.Select(Selection{SelNode, 1})
+	e.SetOverlay(sampleOverlay())
 	test.AssertRendersToMarkup(t, "editor_overlay.xml", w.Canvas())
 
 	// out-of-range overlay indices (a stale overlay) are ignored, not drawn or crashed on

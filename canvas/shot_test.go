@@ -2,13 +2,10 @@ package canvas
 
 import (
 	"image/png"
-	"math"
 	"os"
 	"testing"
 
 	"fyne.io/fyne/v2"
-
-	"duosweep/engine"
 )
 
 // TestShot writes a picture for a person to look at when DUOSWEEP_SHOT names a file.
@@ -21,15 +18,7 @@ func TestShot(t *testing.T) {
 	w.Resize(fyne.NewSize(500, 420))
 	e.FitView()
 	e.Select(Selection{SelNode, 1})
-	e.SetOverlay(Overlay{
-		Evac: []float64{math.NaN(), 10, 30, 24}, EvacMax: 30, Worst: 2, Focus: 3,
-		Agents: []AgentMark{
-			{Name: "A", At: engine.Point{From: 1, To: 2, Offset: 4}, Trail: []engine.Point{engine.At(0), engine.At(1)}},
-			{Name: "B", At: engine.Point{From: 1, To: 3, Offset: 7}, Trail: []engine.Point{engine.At(0), engine.At(1)}, Informed: true},
-		},
-		Meeting:   &engine.Point{From: 1, To: 3, Offset: 10},
-		Unvisited: []int{3},
-	})
+	e.SetOverlay(sampleOverlay())
 	if os.Getenv("DUOSWEEP_SHOT_HELP") != "" {
 		e.ToggleHelp()
 	}

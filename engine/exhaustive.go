@@ -802,6 +802,15 @@ func (x *exSearch) decide(m int) {
 		v    int
 		d    float64
 	}
+	// nearest first, ties by node
+	byDist := func(o []opt) {
+		sort.Slice(o, func(i, j int) bool {
+			if o[i].d != o[j].d {
+				return o[i].d < o[j].d
+			}
+			return o[i].v < o[j].v
+		})
+	}
 	var opts []opt
 	var reach []int
 	{
@@ -829,12 +838,7 @@ func (x *exSearch) decide(m int) {
 			}
 		}
 	}
-	sort.Slice(opts, func(i, j int) bool {
-		if opts[i].d != opts[j].d {
-			return opts[i].d < opts[j].d
-		}
-		return opts[i].v < opts[j].v
-	})
+	byDist(opts)
 	if og.status == agWaiting {
 		opts = append(opts, opt{kind: 3, v: og.rv, d: s.Dist(g.pos, og.rv)})
 	} else {
@@ -858,12 +862,7 @@ func (x *exSearch) decide(m int) {
 				}
 				parks = append(parks, opt{1, u, s.Dist(g.pos, u)})
 			}
-			sort.Slice(parks, func(i, j int) bool {
-				if parks[i].d != parks[j].d {
-					return parks[i].d < parks[j].d
-				}
-				return parks[i].v < parks[j].v
-			})
+			byDist(parks)
 			opts = append(opts, parks...)
 		}
 		if x.m == FaceToFace && og.status == agActive && vis != x.lastMeet {
@@ -883,12 +882,7 @@ func (x *exSearch) decide(m int) {
 					rvs = append(rvs, opt{2, u, s.Dist(g.pos, u)})
 				}
 			}
-			sort.Slice(rvs, func(i, j int) bool {
-				if rvs[i].d != rvs[j].d {
-					return rvs[i].d < rvs[j].d
-				}
-				return rvs[i].v < rvs[j].v
-			})
+			byDist(rvs)
 			opts = append(opts, rvs...)
 		}
 	}

@@ -158,9 +158,7 @@ func (a *App) refreshResults() {
 		w.emptyHint.Hide()
 		w.figures.Hide()
 		w.incomplete.Hide()
-		a.refreshLegend()
-		a.sortExits()
-		w.table.Refresh()
+		a.refreshTable()
 		return
 	}
 	w.errBox.Hide()
@@ -169,9 +167,7 @@ func (a *App) refreshResults() {
 		w.emptyHint.Show()
 		w.figures.Hide()
 		w.incomplete.Hide()
-		a.refreshLegend()
-		a.sortExits()
-		w.table.Refresh()
+		a.refreshTable()
 		return
 	}
 	w.emptyHint.Hide()
@@ -218,9 +214,14 @@ func (a *App) refreshResults() {
 	} else {
 		w.incomplete.Hide()
 	}
+	a.refreshTable()
+}
+
+// refreshTable redraws the legend and the candidate table for the current report.
+func (a *App) refreshTable() {
 	a.refreshLegend()
 	a.sortExits()
-	w.table.Refresh()
+	a.w.table.Refresh()
 }
 
 // fmtTime is "mm:ss (123.4 s)".

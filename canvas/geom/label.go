@@ -22,14 +22,7 @@ var labelDirs = func() [8]Pt {
 func LabelOffset(dirs []Pt, w, h, gap float64) Pt {
 	best, bestScore := 0, math.Inf(1)
 	for k, c := range labelDirs {
-		score := -1.0
-		for _, u := range dirs {
-			l := math.Hypot(u.X, u.Y)
-			if l == 0 {
-				continue
-			}
-			score = math.Max(score, (c.X*u.X+c.Y*u.Y)/l)
-		}
+		score := crowding(c, dirs)
 		if score < bestScore-1e-9 {
 			best, bestScore = k, score
 		}
@@ -44,15 +37,7 @@ func LabelCandidates(dirs []Pt, w, h, gap float64, out []Pt) []Pt {
 	var score [8]float64
 	var idx [8]int
 	for k, c := range labelDirs {
-		s := -1.0
-		for _, u := range dirs {
-			l := math.Hypot(u.X, u.Y)
-			if l == 0 {
-				continue
-			}
-			s = math.Max(s, (c.X*u.X+c.Y*u.Y)/l)
-		}
-		score[k], idx[k] = s, k
+		score[k], idx[k] = crowding(c, dirs), k
 	}
 	// insertion sort, stable: ties keep the preference order
 	for i := 1; i < 8; i++ {
@@ -64,6 +49,20 @@ func LabelCandidates(dirs []Pt, w, h, gap float64, out []Pt) []Pt {
 		out = append(out, boxAt(labelDirs[k], w, h, gap))
 	}
 	return out
+}
+
+// crowding is how close direction c comes to the nearest of the corridor
+// directions dirs: the largest cosine, −1 when there are none.
+func crowding(c Pt, dirs []Pt) float64 {
+	score := -1.0
+	for _, u := range dirs {
+		l := math.Hypot(u.X, u.Y)
+		if l == 0 {
+			continue
+		}
+		score = math.Max(score, (c.X*u.X+c.Y*u.Y)/l)
+	}
+	return score
 }
 
 func boxAt(c Pt, w, h, gap float64) Pt {
