@@ -165,8 +165,8 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 	return r
 }
 
-// exitFull is exitResult with the evacuation time worked out.
-func exitFull(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) ExitResult {
+// ExitFull is exitResult with the evacuation time worked out.
+func ExitFull(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) ExitResult {
 	ex := exitResult(fv, x)
 	if ex.Finder != 0 && ex.Finder != 1 {
 		return ex
@@ -192,7 +192,7 @@ func exitResult(fv [2][]float64, x int) ExitResult {
 	case math.IsInf(t, 1):
 		ex.Finder = Nobody
 		return ex
-	case math.Abs(t0-t1) <= tol(t):
+	case math.Abs(t0-t1) <= Tol(t):
 		ex.Finder = Both
 		ex.EvacAt, ex.MeetAt = t, t
 		return ex
@@ -218,7 +218,7 @@ func intercept(s *Site, tr *Trajectory, x int, t, sf, sp float64, hint *int) (fl
 	nseg := len(tr.Segs)
 	final := tr.FinalPoint()
 	tailFrom := tr.End
-	if k := sort.SearchFloat64s(tr.RVTime, t-tol(t)); k < len(tr.RVTime) {
+	if k := sort.SearchFloat64s(tr.RVTime, t-Tol(t)); k < len(tr.RVTime) {
 		nseg = tr.RVSegs[k]
 		final = tr.RVAt[k]
 		tailFrom = tr.RVTime[k]
@@ -339,4 +339,16 @@ func firstTrue(lo, hi, hint int, pred func(int) bool) int {
 		}
 	}
 	return b
+}
+
+// Better reports whether report a beats b: smaller worst case, then smaller
+// expected time. Planner names break remaining ties through the caller's order.
+func Better(a, b *Report) bool {
+	if d := a.Worst - b.Worst; math.Abs(d) > Tol(b.Worst) {
+		return d < 0
+	}
+	if a.HasExpected && b.HasExpected && math.Abs(a.Expected-b.Expected) > Tol(b.Expected) {
+		return a.Expected < b.Expected
+	}
+	return false
 }

@@ -70,7 +70,7 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 		return nil, err
 	}
 	fv := [2][]float64{trs[0].FirstVisits(), trs[1].FirstVisits()}
-	ex := exitFull(s, trs, fv, exit, m)
+	ex := ExitFull(s, trs, fv, exit, m)
 	rp := &Replay{Exit: exit, Model: m, Result: ex, End: ex.EvacAt}
 	if ex.Finder == Nobody {
 		rp.full = trs
@@ -126,7 +126,7 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 		rp.full[f] = mk(rf, f)
 		// the partner's uninformed route up to τ, cut at the first rendezvous at or after t
 		rvLimit := -1
-		if k := sort.SearchFloat64s(trs[q].RVTime, t-tol(t)); k < len(trs[q].RVTime) {
+		if k := sort.SearchFloat64s(trs[q].RVTime, t-Tol(t)); k < len(trs[q].RVTime) {
 			rvLimit = trs[q].RVWp[k]
 		}
 		rq := prefixRoute(trs[q], p.Routes[q], tau, rvLimit, meet, tau)

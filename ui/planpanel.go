@@ -15,6 +15,7 @@ import (
 
 	"duosweep/canvas"
 	"duosweep/engine"
+	"duosweep/engine/planners"
 	"duosweep/projects"
 )
 
@@ -116,7 +117,7 @@ func (a *App) planPanel() fyne.CanvasObject {
 func (a *App) fillPlannerChoices() {
 	opts := []string{bestAvailable}
 	sel := bestAvailable
-	for _, p := range engine.PlannersFor(a.model) {
+	for _, p := range planners.PlannersFor(a.model) {
 		label := p.Name
 		if p.Search {
 			label += " (search)"

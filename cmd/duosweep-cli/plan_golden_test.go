@@ -15,6 +15,7 @@ import (
 
 	"duosweep/engine"
 	"duosweep/engine/gen"
+	"duosweep/engine/planners"
 	"duosweep/projects"
 )
 
@@ -132,7 +133,7 @@ func TestPlanGolden(t *testing.T) {
 					e := &env{ctx: context.Background(), stdout: &buf, stderr: &errBuf, name: "plan"}
 					_, s, err := projects.LoadSiteFile(path)
 					require.NoError(t, err)
-					p, r, err := makePlan(e, s, pl, m, engine.Options{Seed: 1, Iterations: goldenImproveIterations, Progress: func(engine.Progress) {}})
+					p, r, err := makePlan(e, s, pl, m, planners.Options{Seed: 1, Iterations: goldenImproveIterations, Progress: func(planners.Progress) {}})
 					if err != nil {
 						row.Error = err.Error()
 					} else {
