@@ -179,7 +179,7 @@ func TestEditOrModelSwitchCancelsSearch(t *testing.T) {
 				t.Fatal(err)
 			}
 		}},
-		{"model switch", func() { a.w.model.SetSelected(modelLabels[1-a.model]) }},
+		{"model switch", func() { a.w.model.SetSelected(a.model.Other().Label()) }},
 	} {
 		start := time.Now()
 		test.Tap(a.w.search.run)

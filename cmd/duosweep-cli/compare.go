@@ -103,7 +103,7 @@ func compareRows(e *env, s *engine.Site, b time.Duration, seed int64) ([]compare
 	}
 	// the best plan of each model under the other model: what losing (or gaining) radios does
 	for _, m := range engine.Models {
-		other := 1 - m
+		other := m.Other()
 		label := fmt.Sprintf("%s best under %s", m, other)
 		if bestP[m] == nil {
 			rows = append(rows, compareRow{planner: label, model: other, note: "n/a (no plan for " + m.String() + ")"})

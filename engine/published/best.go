@@ -26,7 +26,7 @@ func BestPlan(ctx context.Context, s *engine.Site, m engine.Model) (*engine.Plan
 		}
 		// plans made for m first, so that they win ties; on large sites
 		// only those, to keep planning near-linear
-		made := []engine.Model{m, 1 - m}
+		made := append([]engine.Model{m}, m.Others()...)
 		if s.N > LargeSite {
 			made = made[:1]
 		}

@@ -94,7 +94,7 @@ func planOpposite(ctx context.Context, s *engine.Site, m engine.Model) (*engine.
 			}
 			p := &engine.Plan{Note: fmt.Sprintf("%s walks the tour forwards, %s backwards, %s", s.Names[fw], s.Names[bw], o)}
 			p.Routes = OppositeRoutes(s, m, w, fw, BalancedCut(s, w, fw))
-			if m == engine.FaceToFace {
+			if m.Rendezvous() {
 				p.Note += "; rendezvous where they meet"
 			}
 			plans = append(plans, p)
@@ -116,7 +116,7 @@ func OppositeRoutes(s *engine.Site, m engine.Model, w *engine.Walk, fw int, cut 
 	f, b := engine.NewRoute(s, fw), engine.NewRoute(s, 1-fw)
 	f.WalkPrefix(s, w, cut)
 	b.WalkSuffixReversed(s, w, cut)
-	if m == engine.FaceToFace {
+	if m.Rendezvous() {
 		f.Rendezvous()
 		b.Rendezvous()
 	}

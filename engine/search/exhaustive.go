@@ -91,7 +91,7 @@ const (
 
 // ClassName returns the name of the exhaustive planner's plan class under m.
 func ClassName(m engine.Model) string {
-	if m == engine.FaceToFace {
+	if m.Rendezvous() {
 		return TargetSequenceRVClass
 	}
 	return TargetSequenceClass
@@ -618,7 +618,7 @@ func (x *exSearch) settle(T float64) (maxSettled, pendLB float64, pending bool) 
 			continue
 		}
 		ex := engine.ExitFull(s, trs, x.fv, v, x.m)
-		ok := x.m == engine.Radio || math.IsInf(tp, 1)
+		ok := x.m.Instant() || math.IsInf(tp, 1)
 		if !ok {
 			tr := trs[p]
 			if k := sort.SearchFloat64s(tr.RVTime, t-engine.Tol(t)); k < len(tr.RVTime) {
@@ -862,7 +862,7 @@ func (x *exSearch) decide(m int) {
 			byDist(parks)
 			opts = append(opts, parks...)
 		}
-		if x.m == engine.FaceToFace && og.status == agActive && vis != x.lastMeet {
+		if x.m.Rendezvous() && og.status == agActive && vis != x.lastMeet {
 			// with equal speeds a rendezvous outside the smallest subtree T*
 			// holding the unvisited and pending candidates and both leg ends
 			// is dominated by the point where the paths to it leave T*.

@@ -366,7 +366,7 @@ func (im *improver) fromPlan(p *engine.Plan) *imState {
 			}
 		}
 	}
-	paired := len(rv[0]) == len(rv[1]) && im.m == engine.FaceToFace
+	paired := len(rv[0]) == len(rv[1]) && im.m.Rendezvous()
 	if paired {
 		for k := range rv[0] {
 			p0 := s.Canon(p.Routes[0].Waypoints[rv[0][k]].P)
@@ -394,7 +394,7 @@ func (im *improver) fromPlan(p *engine.Plan) *imState {
 			if w.Rendezvous {
 				if paired {
 					it = imItem{Meet: true}
-				} else if im.m == engine.FaceToFace {
+				} else if im.m.Rendezvous() {
 					it.RV = true
 				}
 			}
@@ -481,7 +481,7 @@ func (im *improver) mutate(st *imState, r *engine.Report) *imState {
 	a := rng.IntN(2)
 	l := c.list[a]
 	moves := imMovesRadio
-	if im.m == engine.FaceToFace {
+	if im.m.Rendezvous() {
 		moves = imMovesF2F
 	}
 	switch mv := moves[rng.IntN(len(moves))]; mv {
