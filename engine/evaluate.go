@@ -17,6 +17,9 @@ type ExitResult struct {
 	FoundAt float64 // t(x); +Inf when never visited
 	Finder  int     // 0, 1, Both or Nobody
 	EvacAt  float64 // evac(x); +Inf when never visited
+	// DoneAt is done(x) = evac(x) + d(x, F)/v_c, when the crew is out at the
+	// finish (MODEL.md §10); EvacAt without a finish.
+	DoneAt float64
 	// Face-to-face only: where and when the finder meets its partner (MeetAt
 	// is FoundAt when no meeting is needed).
 	MeetAt    float64
@@ -28,10 +31,15 @@ type Report struct {
 	Model        Model
 	Planner      string
 	Exits        []ExitResult // one per candidate, in node order
-	Worst        float64      // max evac; +Inf for an incomplete plan, 0 without candidates
+	Worst        float64      // max done (= max evac without a finish); +Inf for an incomplete plan, 0 without candidates
 	WorstExit    int          // node index of the worst exit (ties: lowest index), -1 without candidates
-	Expected     float64      // Σ p·evac, when HasExpected
+	Expected     float64      // Σ p·done, when HasExpected
 	HasExpected  bool
+	// OverDone reports that Worst, WorstExit, Expected and Gap are taken over
+	// done(x) (the site has a finish, MODEL.md §10); otherwise over evac(x),
+	// which then equals done(x). WorstEvac is max evac(x) either way.
+	OverDone  bool
+	WorstEvac float64
 	Bounds       Bounds
 	Gap          float64 // Worst/LB − 1 (0 when LB is 0)
 	Complete     bool
@@ -109,16 +117,20 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 			}
 		}
 	}
-	for _, ex := range r.Exits {
+	r.OverDone = s.HasFinish()
+	for i := range r.Exits {
+		ex := &r.Exits[i]
+		ex.DoneAt = ex.EvacAt + s.Out(ex.Node)
 		if ex.Finder == Nobody {
 			r.Complete = false
 			r.Unvisited = append(r.Unvisited, ex.Node)
 		}
-		if r.WorstExit < 0 || ex.EvacAt > r.Worst {
-			r.Worst, r.WorstExit = ex.EvacAt, ex.Node
+		if r.WorstExit < 0 || ex.DoneAt > r.Worst {
+			r.Worst, r.WorstExit = ex.DoneAt, ex.Node
 		}
+		r.WorstEvac = math.Max(r.WorstEvac, ex.EvacAt)
 		if s.HasProb && s.Prob[ex.Node] > 0 {
-			r.Expected += s.Prob[ex.Node] * ex.EvacAt
+			r.Expected += s.Prob[ex.Node] * ex.DoneAt
 		}
 	}
 	r.HasExpected = s.HasProb
@@ -129,10 +141,11 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 }
 
 // ExitFull is the evaluation of one exit x under m: exitResult with the
-// evacuation time worked out. fv holds each agent's first-visit times.
-// Searches that grow trajectories leg by leg use it to settle one exit.
+// evacuation time (and done(x)) worked out. fv holds each agent's first-visit
+// times. Searches that grow trajectories leg by leg use it to settle one exit.
 func ExitFull(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) ExitResult {
 	ex, _ := exitTelling(s, trs, fv, x, m)
+	ex.DoneAt = ex.EvacAt + s.Out(x)
 	return ex
 }
 

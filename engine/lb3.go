@@ -49,7 +49,8 @@ const (
 
 type fpt struct{ a, b float64 } // the off-path lengths the two agents cover
 
-// lb3 returns LB3 (a time) for s, or 0 when the search tree is larger than
+// lb3 returns LB3 (a time) for s, of done(x) with a finish (min over the
+// last-found x of its cover value + o(x), docs/lower-bound.md), or 0 when the search tree is larger than
 // lb3MaxNodes or there is no candidate.
 func lb3(s *Site, lb12 float64) float64 {
 	n := 0
@@ -104,7 +105,8 @@ func lb3(s *Site, lb12 float64) float64 {
 		}
 		if s.Candidate[v] {
 			sc.work += len(G[v]) * len(F[v])
-			best = math.Min(best, lb3At(s.Depth[v], G[v], F[v], s.Speed))
+			// with a finish, the last-found x is still to be carried out
+			best = math.Min(best, lb3At(s.Depth[v], G[v], F[v], s.Speed)+s.Out(v))
 		}
 		kids, opts, pre = kids[:0], opts[:0], pre[:0]
 		for _, c := range s.Children(v) {
@@ -131,7 +133,8 @@ func lb3(s *Site, lb12 float64) float64 {
 	if sc.over {
 		return 0
 	}
-	return math.Min(best, U)
+	// dropped points alone reach U, so with the carry they reach U + min o
+	return math.Min(best, U+s.minOut())
 }
 
 // lb3At is the bound for the last discovery at a candidate at depth d, with

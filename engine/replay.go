@@ -71,6 +71,7 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 	}
 	fv := [2][]float64{trs[0].FirstVisits(), trs[1].FirstVisits()}
 	ex, tl := exitTelling(s, trs, fv, exit, m)
+	ex.DoneAt = ex.EvacAt + s.Out(exit)
 	rp := &Replay{Exit: exit, Model: m, Result: ex, End: ex.EvacAt}
 	if ex.Finder == Nobody {
 		rp.full = trs

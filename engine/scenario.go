@@ -17,6 +17,9 @@ type Scenario struct {
 	// GeoRef says how drawing coordinates map back to an imported source's
 	// coordinates (drawing only), or nil. See drawing.go.
 	GeoRef *GeoRef
+	// Finish is where the crew takes the casualty once both agents have
+	// reached it (MODEL.md §10), or nil: then done(x) = evac(x). See finish.go.
+	Finish *Finish
 }
 
 // Node is a junction, dead end or chamber.
@@ -47,6 +50,12 @@ type Corridor struct {
 	// coordinates, in order from From to To (the end nodes' own positions are
 	// the two ends). Drawing only: Length is what the model uses.
 	Path [][2]float64
+	// Effort is the corridor's effort factor e (MODEL.md §9): walking it
+	// takes e·Length/speed. nil means the default 1; a value given must be a
+	// finite number in (0, MaxEffort] (NewSite refuses 0, negative, NaN and
+	// larger values, naming the field). A pointer so that an explicit 0 in a
+	// file is told apart from an absent field. See effort.go.
+	Effort *float64
 }
 
 // Agent is one member of the crew. Speed is in unit per second and must be > 0.
@@ -68,6 +77,7 @@ func (sc Scenario) Clone() Scenario {
 	out.Nodes = append([]Node(nil), sc.Nodes...)
 	out.Corridors = append([]Corridor(nil), sc.Corridors...)
 	cloneDrawing(&out)
+	cloneEffort(&out)
 	return out
 }
 

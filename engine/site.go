@@ -43,9 +43,13 @@ type Site struct {
 	Prob      []float64 // probabilities (0 where absent)
 	HasProb   bool      // some node has a probability: expected times are reported
 
-	// Edges, by corridor index.
-	EU, EV []int32
-	EW     []float64
+	// Edges, by corridor index. EW is the effort-weighted length w·e that
+	// every distance, bound, planner and time uses (MODEL.md §9); RealLen is
+	// the corridor's length as given and Effort its factor (1 by default).
+	EU, EV  []int32
+	EW      []float64
+	RealLen []float64
+	Effort  []float64
 
 	// Rooted at Start.
 	Parent     []int32   // -1 at the root
@@ -53,6 +57,7 @@ type Site struct {
 	Depth      []float64 // distance from the start
 	Level      []int32   // number of corridors from the start
 	Order      []int32   // a preorder (parents before children)
+	RealDepth  []float64 // real (unweighted) length of the path from the start
 
 	// Children in CSR form: children of v are ChildList[ChildStart[v]:ChildStart[v+1]],
 	// in corridor order.
@@ -61,6 +66,12 @@ type Site struct {
 
 	// InSearch marks nodes of the smallest subtree holding the start and every candidate.
 	InSearch []bool
+
+	// Finish is the finish node (MODEL.md §10), -1 without one; Carry the
+	// carry speed v_c (0 without a finish). finish.go.
+	Finish int
+	Carry  float64
+	out    []float64 // o(v) = d(v, F)/v_c; nil without a finish
 
 	index map[string]int
 	hld   hld
@@ -137,7 +148,11 @@ func NewSite(sc Scenario) (*Site, error) {
 	if err := s.buildCandidates(); err != nil {
 		return nil, err
 	}
+	if err := s.buildFinish(); err != nil {
+		return nil, err
+	}
 	s.hld = newHLD(s)
+	s.buildOut()
 	return s, nil
 }
 
@@ -206,6 +221,8 @@ func (s *Site) buildEdges() error {
 	s.EU = make([]int32, m)
 	s.EV = make([]int32, m)
 	s.EW = make([]float64, m)
+	s.RealLen = make([]float64, m)
+	s.Effort = make([]float64, m)
 	uf := newUnionFind(s.N)
 	for i, c := range s.Scenario.Corridors {
 		u, ok := s.index[c.From]
@@ -222,7 +239,12 @@ func (s *Site) buildEdges() error {
 		if !(c.Length > 0) || math.IsInf(c.Length, 0) {
 			return fieldErr(fmt.Sprintf("corridors[%d].length", i), fmtNum(c.Length), "length must be a finite number > 0")
 		}
-		s.EU[i], s.EV[i], s.EW[i] = int32(u), int32(v), c.Length
+		e, err := effortOf(i, c)
+		if err != nil {
+			return err
+		}
+		s.EU[i], s.EV[i], s.EW[i] = int32(u), int32(v), c.Length*e
+		s.RealLen[i], s.Effort[i] = c.Length, e
 		if !c.Closed && !uf.union(u, v) {
 			return s.loopErr(i) // closed corridors may close loops (closed.go)
 		}
@@ -261,6 +283,7 @@ func (s *Site) buildRooted() error {
 	s.Parent = make([]int32, n)
 	s.ParentEdge = make([]int32, n)
 	s.Depth = make([]float64, n)
+	s.RealDepth = make([]float64, n)
 	s.Level = make([]int32, n)
 	s.Order = make([]int32, 0, n)
 	seen := make([]bool, n)
@@ -284,6 +307,7 @@ func (s *Site) buildRooted() error {
 			s.Parent[w] = v
 			s.ParentEdge[w] = e
 			s.Depth[w] = s.Depth[v] + s.EW[e]
+			s.RealDepth[w] = s.RealDepth[v] + s.RealLen[e]
 			s.Level[w] = s.Level[v] + 1
 			stack = append(stack, w)
 		}

@@ -552,7 +552,7 @@ func (x *exSearch) leaf() {
 			return
 		}
 		ex := engine.ExitFull(x.s, trs, x.fv, v, x.m)
-		worst = math.Max(worst, ex.EvacAt)
+		worst = math.Max(worst, ex.DoneAt)
 		if worst >= x.inc*(1-1e-12) {
 			return
 		}
@@ -596,9 +596,9 @@ func (x *exSearch) settle(T float64) (maxSettled, pendLB float64, pending bool) 
 			f = 1
 		}
 		if math.Abs(t0-t1) <= engine.Tol(t) {
-			x.settled[c], x.evac[c] = true, t
+			x.settled[c], x.evac[c] = true, t+s.Out(v)
 			x.setLog = append(x.setLog, c)
-			maxSettled = math.Max(maxSettled, t)
+			maxSettled = math.Max(maxSettled, x.evac[c])
 			continue
 		}
 		p := 1 - f
@@ -611,7 +611,7 @@ func (x *exSearch) settle(T float64) (maxSettled, pendLB float64, pending bool) 
 		if t > tp {
 			// the partner may still get there first; it must get there anyway
 			g := &x.ag[p]
-			lb := g.T + s.Dist(g.pos, v)/s.Speed[p]
+			lb := g.T + s.Dist(g.pos, v)/s.Speed[p] + s.Out(v)
 			x.pcache[c] = pendCache{v0: x.ag[0].ver, v1: x.ag[1].ver, lb: lb, ok: true}
 			pendLB = math.Max(pendLB, lb)
 			pending = pending || t <= T
@@ -630,9 +630,9 @@ func (x *exSearch) settle(T float64) (maxSettled, pendLB float64, pending bool) 
 			}
 		}
 		if ok {
-			x.settled[c], x.evac[c] = true, ex.EvacAt
+			x.settled[c], x.evac[c] = true, ex.DoneAt
 			x.setLog = append(x.setLog, c)
-			maxSettled = math.Max(maxSettled, ex.EvacAt)
+			maxSettled = math.Max(maxSettled, ex.DoneAt)
 			continue
 		}
 		// radio value at t: never more than the face-to-face one
@@ -642,6 +642,7 @@ func (x *exSearch) settle(T float64) (maxSettled, pendLB float64, pending bool) 
 			g := &x.ag[p]
 			lb = math.Max(lb, tp+s.Dist(g.pos, v)/s.Speed[p])
 		}
+		lb += s.Out(v) // done(x) = evac(x) + o(x)
 		x.pcache[c] = pendCache{v0: x.ag[0].ver, v1: x.ag[1].ver, lb: lb, ok: true}
 		pendLB = math.Max(pendLB, lb)
 		pending = pending || t <= T
@@ -721,7 +722,7 @@ func (x *exSearch) decide(m int) {
 		if unv&(1<<c) == 0 {
 			continue
 		}
-		b := T + math.Max(s.Dist(g.pos, v)/s.Speed[m], s.NodeDist(po, v)/s.Speed[o])
+		b := T + math.Max(s.Dist(g.pos, v)/s.Speed[m], s.NodeDist(po, v)/s.Speed[o]) + s.Out(v)
 		if !x.cfg.noPrune {
 			lb = math.Max(lb, b)
 		}
@@ -730,7 +731,14 @@ func (x *exSearch) decide(m int) {
 		return
 	}
 	sw := x.steinerW(unv, g.pos)
-	if b := T + (2*sw-s.NodeDist(po, g.pos))/(2*x.vmax); b > lb && !x.cfg.noPrune {
+	// the last of the unvisited is found no earlier, and carried out after
+	minOut := math.Inf(1)
+	for c, v := range x.cand {
+		if unv&(1<<c) != 0 {
+			minOut = math.Min(minOut, s.Out(v))
+		}
+	}
+	if b := T + (2*sw-s.NodeDist(po, g.pos))/(2*x.vmax) + minOut; b > lb && !x.cfg.noPrune {
 		lb = b
 	}
 	if lb >= x.inc*(1-1e-12) {

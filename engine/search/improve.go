@@ -331,14 +331,14 @@ func newImprover(s *engine.Site, m engine.Model, seed int64) *improver {
 }
 
 // score is what the acceptance rule compares: the worst case plus a small
-// share of the mean evacuation time.
+// share of the mean done time (the evacuation time without a finish).
 func (im *improver) score(r *engine.Report) float64 {
 	if !r.Complete || len(r.Exits) == 0 {
 		return math.Inf(1)
 	}
 	sum := 0.0
 	for _, e := range r.Exits {
-		sum += e.EvacAt
+		sum += e.DoneAt
 	}
 	// a tiny charge on route length keeps detours that no exit needs from piling up
 	return r.Worst + 0.02*sum/float64(len(r.Exits)) + 1e-4*(r.RouteLengths[0]/im.s.Speed[0]+r.RouteLengths[1]/im.s.Speed[1])
