@@ -91,14 +91,13 @@ func computeBounds(s *Site) Bounds {
 // the smallest carry, the second the pair y = z), so it is still a valid bound.
 func lb2Finish(s *Site, b Bounds, v float64) (float64, bool) {
 	cand := s.Candidates()
-	single := 0.0
-	for _, x := range cand {
-		single = math.Max(single, s.Depth[x]/v+s.Out(x))
-	}
 	if len(cand) > LB2PairCap {
-		return math.Max(single, b.LB2/v+b.MinOut), false
+		return lb2FinishFallback(s, b, v), false
 	}
-	best := single
+	best := 0.0
+	for _, x := range cand {
+		best = math.Max(best, s.Depth[x]/v+s.Out(x))
+	}
 	for i, y := range cand {
 		for _, z := range cand[i+1:] {
 			d := s.Dist(y, z)
@@ -111,4 +110,16 @@ func lb2Finish(s *Site, b Bounds, v float64) (float64, bool) {
 // PathToFar returns the nodes of P, from the start to the farthest candidate.
 func (s *Site) PathToFar() []int {
 	return s.Path(s.Start, ComputeBounds(s).Far)
+}
+
+// lb2FinishFallback is the O(n) bound used above LB2PairCap candidates:
+// max(LB2/v + min o, max over x of D_x/v + o(x)).
+func lb2FinishFallback(s *Site, b Bounds, v float64) float64 {
+	single := 0.0
+	for x, c := range s.Candidate {
+		if c {
+			single = math.Max(single, s.Depth[x]/v+s.Out(x))
+		}
+	}
+	return math.Max(single, b.LB2/v+b.MinOut)
 }
