@@ -28,18 +28,18 @@ type ExitResult struct {
 
 // Report is the evaluation of one plan under one model (MODEL.md §7).
 type Report struct {
-	Model        Model
-	Planner      string
-	Exits        []ExitResult // one per candidate, in node order
-	Worst        float64      // max done (= max evac without a finish); +Inf for an incomplete plan, 0 without candidates
-	WorstExit    int          // node index of the worst exit (ties: lowest index), -1 without candidates
-	Expected     float64      // Σ p·done, when HasExpected
-	HasExpected  bool
+	Model       Model
+	Planner     string
+	Exits       []ExitResult // one per candidate, in node order
+	Worst       float64      // max done (= max evac without a finish); +Inf for an incomplete plan, 0 without candidates
+	WorstExit   int          // node index of the worst exit (ties: lowest index), -1 without candidates
+	Expected    float64      // Σ p·done, when HasExpected
+	HasExpected bool
 	// OverDone reports that Worst, WorstExit, Expected and Gap are taken over
 	// done(x) (the site has a finish, MODEL.md §10); otherwise over evac(x),
 	// which then equals done(x). WorstEvac is max evac(x) either way.
-	OverDone  bool
-	WorstEvac float64
+	OverDone     bool
+	WorstEvac    float64
 	Bounds       Bounds
 	Gap          float64 // Worst/LB − 1 (0 when LB is 0)
 	Complete     bool
