@@ -132,7 +132,7 @@ type derived struct {
 // NewEditor returns an editor showing sc (see SetScenario).
 func NewEditor(sc engine.Scenario) *Editor {
 	e := &Editor{view: geom.NewView(), sel: Selection{Kind: SelNone, Index: -1}, hover: Selection{Kind: SelNone, Index: -1}}
-	e.overlay = emptyOverlay()
+	e.overlay = NoOverlay()
 	e.now = time.Now
 	e.after = func(d time.Duration, f func()) { time.AfterFunc(d, func() { fyne.Do(f) }) }
 	e.ExtendBaseWidget(e)
@@ -170,7 +170,7 @@ func (e *Editor) setScenario(sc engine.Scenario) {
 	e.sel = Selection{Kind: SelNone, Index: -1}
 	e.hover = Selection{Kind: SelNone, Index: -1}
 	e.drag = drag{}
-	e.overlay = emptyOverlay()
+	e.overlay = NoOverlay()
 	e.rebuild()
 	e.placeMissing()
 	e.rebuild()

@@ -181,10 +181,7 @@ func (e *Editor) RedoName() string {
 
 func (e *Editor) nodeName(i int) string {
 	n := e.sc.Nodes[i]
-	if n.Label != "" && n.Label != n.ID {
-		return fmt.Sprintf("%s (%s)", n.Label, n.ID)
-	}
-	return n.ID
+	return JunctionName(n.ID, n.Label)
 }
 
 func (e *Editor) checkNode(i int) error {

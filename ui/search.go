@@ -14,7 +14,6 @@ import (
 	"fyne.io/fyne/v2/widget"
 
 	"duosweep/engine"
-	"duosweep/projects"
 )
 
 // The "search for a better plan" action of the plan panel: it runs the engine's search planners
@@ -140,7 +139,7 @@ func (a *App) searchPanel() fyne.CanvasObject {
 
 // searchable reports whether the plan on screen is a valid, up-to-date plan a search can start from.
 func (a *App) searchable() bool {
-	return !a.busy && a.planErr == nil && a.site != nil && a.report != nil && len(a.report.Exits) > 0
+	return !a.planning.busy && a.planning.err == nil && a.planning.site != nil && a.planning.report != nil && len(a.planning.report.Exits) > 0
 }
 
 // refreshSearch enables the search buttons when a search can start, and explains why "prove best of
@@ -153,15 +152,15 @@ func (a *App) refreshSearch() {
 	ok := a.searchable() && !a.search.running
 	setEnabled(sw.run, ok)
 	proveOK := ok
-	if a.site != nil && a.planErr == nil {
-		if err := engine.CheckExhaustiveSize(a.site); err != nil {
+	if a.planning.site != nil && a.planning.err == nil {
+		if err := engine.CheckExhaustiveSize(a.planning.site); err != nil {
 			proveOK = false
 			nc, ns := 0, 0
-			for v := 0; v < a.site.N; v++ {
-				if a.site.Candidate[v] {
+			for v := 0; v < a.planning.site.N; v++ {
+				if a.planning.site.Candidate[v] {
 					nc++
 				}
-				if a.site.InSearch[v] {
+				if a.planning.site.InSearch[v] {
 					ns++
 				}
 			}
@@ -202,12 +201,12 @@ func (a *App) startSearch(planner string) {
 	st.gen++
 	gen := st.gen
 	st.cancel, st.running, st.result = cancel, true, nil
-	site, m, budget, iters := a.site, a.model, st.budget, st.iterations
+	site, m, budget, iters := a.planning.site, a.model, st.budget, st.iterations
 	// the best published plan: the plan on screen when it is the "best available" one
 	var base *engine.Plan
 	var baseR *engine.Report
-	if a.planner == "" && a.pubPlan != nil {
-		base, baseR = a.pubPlan, a.pubReport
+	if a.planner == "" && a.planning.pubPlan != nil {
+		base, baseR = a.planning.pubPlan, a.planning.pubReport
 	}
 	sw := &a.w.search
 	sw.bar.SetValue(0)
@@ -256,7 +255,7 @@ func (a *App) showSearchProgress(p engine.Progress) {
 	if math.IsInf(p.Best, 0) || math.IsNaN(p.Best) {
 		sw.best.SetText("no complete plan yet")
 	} else {
-		sw.best.SetText("best so far " + projects.FormatDuration(p.Best))
+		sw.best.SetText("best so far " + clock(p.Best))
 	}
 }
 
@@ -319,7 +318,7 @@ func (a *App) finishSearch(res *searchResult) {
 		name = "exhaustive search"
 	}
 	sw.baseKey.SetText("Best published planner")
-	sw.baseVal.SetText(fmt.Sprintf("%s: %s, gap %s", res.base.Planner, projects.FormatDuration(res.baseR.Worst), gapText(res.baseR)))
+	sw.baseVal.SetText(fmt.Sprintf("%s: %s, gap %s", res.base.Planner, clock(res.baseR.Worst), gapText(res.baseR)))
 	sw.resKey.SetText("Search result")
 	proof := ""
 	if res.planner == "exhaustive" {
@@ -331,7 +330,7 @@ func (a *App) finishSearch(res *searchResult) {
 			proof = ", not proven (stopped)"
 		}
 	}
-	sw.resVal.SetText(fmt.Sprintf("%s: %s, gap %s%s", name, projects.FormatDuration(res.report.Worst), gapText(res.report), proof))
+	sw.resVal.SetText(fmt.Sprintf("%s: %s, gap %s%s", name, clock(res.report.Worst), gapText(res.report), proof))
 	gain := res.baseR.Worst - res.report.Worst
 	better := engine.Better(res.report, res.baseR)
 	switch {
@@ -369,14 +368,14 @@ func gapText(r *engine.Report) string {
 // table, playback and the itinerary all follow it until the next edit.
 func (a *App) useSearchPlan() {
 	res := a.search.result
-	if res == nil || res.site != a.site || res.model != a.model {
+	if res == nil || res.site != a.planning.site || res.model != a.model {
 		return
 	}
-	a.plan, a.report = res.plan, res.report
-	a.heat = heatOverlay(a.site, a.report)
-	if a.focus >= 0 {
-		if _, ok := a.report.ExitFor(a.focus); !ok {
-			a.focus = -1
+	a.planning.plan, a.planning.report = res.plan, res.report
+	a.planning.heat = heatOverlay(a.planning.site, a.planning.report)
+	if a.playback.focus >= 0 {
+		if _, ok := a.planning.report.ExitFor(a.playback.focus); !ok {
+			a.playback.focus = -1
 		}
 	}
 	a.search.inUse = true
