@@ -416,11 +416,12 @@ func (e *Editor) Tidy() {
 		return
 	}
 	pos := e.tidyLayout()
-	_ = e.Edit("Tidy layout", func(sc *engine.Scenario) error {
+	err := e.Edit("Tidy layout", func(sc *engine.Scenario) error {
 		for i := range sc.Nodes {
 			sc.Nodes[i].X, sc.Nodes[i].Y, sc.Nodes[i].HasXY = round3(pos[i].X), round3(pos[i].Y), true
 		}
 		return nil
 	})
+	e.report(err, e.pointer) // a loaded draft with a loop cannot be tidied: say so
 	e.FitView()
 }
