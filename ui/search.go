@@ -139,7 +139,8 @@ func (a *App) searchPanel() fyne.CanvasObject {
 
 // searchable reports whether the plan on screen is a valid, up-to-date plan a search can start from.
 func (a *App) searchable() bool {
-	return !a.planning.busy && a.planning.err == nil && a.planning.site != nil && a.planning.report != nil && len(a.planning.report.Exits) > 0
+	p := &a.planning
+	return !p.busy && p.err == nil && p.site != nil && p.report != nil && len(p.report.Exits) > 0
 }
 
 // refreshSearch enables the search buttons when a search can start, and explains why "prove best of
@@ -152,15 +153,15 @@ func (a *App) refreshSearch() {
 	ok := a.searchable() && !a.search.running
 	setEnabled(sw.run, ok)
 	proveOK := ok
-	if a.planning.site != nil && a.planning.err == nil {
-		if err := engine.CheckExhaustiveSize(a.planning.site); err != nil {
+	if site := a.planning.site; site != nil && a.planning.err == nil {
+		if err := engine.CheckExhaustiveSize(site); err != nil {
 			proveOK = false
 			nc, ns := 0, 0
-			for v := 0; v < a.planning.site.N; v++ {
-				if a.planning.site.Candidate[v] {
+			for v := 0; v < site.N; v++ {
+				if site.Candidate[v] {
 					nc++
 				}
-				if a.planning.site.InSearch[v] {
+				if site.InSearch[v] {
 					ns++
 				}
 			}
@@ -334,7 +335,7 @@ func (a *App) finishSearch(res *searchResult) {
 	gain := res.baseR.Worst - res.report.Worst
 	better := engine.Better(res.report, res.baseR)
 	switch {
-	case gain > 1e-9*math.Max(1, res.baseR.Worst):
+	case gain > timeTol(res.baseR.Worst):
 		sw.verdict.SetText(fmt.Sprintf("%.1f s (%.1f %%) shorter worst case than the published plan.", gain, 100*gain/res.baseR.Worst))
 	case better:
 		sw.verdict.SetText(fmt.Sprintf("Same worst case, %.1f s shorter expected time than the published plan.", res.baseR.Expected-res.report.Expected))
