@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"reflect"
 	"strings"
 	"testing"
 	"time"
@@ -152,7 +153,7 @@ func TestConnectByDragAndRefuseCycle(t *testing.T) {
 	// Alt-drag from c to the unconnected d adds a corridor of the drawn length (14.142 → 14.1)
 	dragPtr(e, e.NodeXY(3), e.NodeXY(4), fyne.KeyModifierAlt)
 	got := e.Scenario().Corridors
-	if len(got) != 4 || got[3] != (engine.Corridor{From: "c", To: "d", Length: 14.1}) {
+	if len(got) != 4 || !reflect.DeepEqual(got[3], engine.Corridor{From: "c", To: "d", Length: 14.1}) {
 		t.Fatalf("corridors %+v", got)
 	}
 	if e.UndoName() != "Connect c–d" {

@@ -12,8 +12,9 @@ import (
 // How the window writes names, times and models: every panel uses these, so that a junction, a time or
 // a model reads the same everywhere.
 //
-// Some stand in for engine helpers of the engine-rooms work (issue 8) until it lands: the time tolerance,
-// the finder's name, the models' labels and the clock. Each is a one-line switch then.
+// Models name themselves (engine.Model.Label, Other) and the engine owns the time tolerance
+// (engine.Tol). The finder's name and the clock stand in here for engine helpers that are not there yet:
+// each is a one-line switch when they are.
 
 // nodeName is how the window names junction v of s: "id (label)", or the id when it has no label of its
 // own, "—" for no junction.
@@ -35,9 +36,6 @@ func clockSeconds(sec float64) string {
 	return fmt.Sprintf("%s (%.1f s)", clock(sec), sec)
 }
 
-// timeTol is how far apart two times near t may be and still count as the same moment.
-func timeTol(t float64) float64 { return 1e-9 * math.Max(1, math.Abs(t)) }
-
 // finderName names who finds an exit (Report.Exits[i].Finder): an agent's name, "both" or "nobody".
 func finderName(s *engine.Site, f int) string {
 	switch f {
@@ -51,12 +49,3 @@ func finderName(s *engine.Site, f int) string {
 
 // byOneAgent reports whether f names one agent (not both, not nobody).
 func byOneAgent(f int) bool { return f != engine.Both && f != engine.Nobody }
-
-// modelLabel is the name of model m in the model choice and the menu.
-func modelLabel(m engine.Model) string { return modelLabels[m] }
-
-// modelLabels are the labels of the models, in engine.Models order.
-var modelLabels = []string{"Radio", "Face to face"}
-
-// otherModel is the model that is not m.
-func otherModel(m engine.Model) engine.Model { return 1 - m }

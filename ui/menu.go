@@ -154,8 +154,8 @@ func (a *App) mainMenu() *fyne.MainMenu {
 		fyne.NewMenuItem("Tidy layout", a.editor.Tidy),
 	)
 	plan := fyne.NewMenu("Plan",
-		fyne.NewMenuItem(modelLabel(engine.Radio), func() { a.setModel(engine.Radio) }),
-		fyne.NewMenuItem(modelLabel(engine.FaceToFace), func() { a.setModel(engine.FaceToFace) }),
+		fyne.NewMenuItem(engine.Radio.Label(), func() { a.setModel(engine.Radio) }),
+		fyne.NewMenuItem(engine.FaceToFace.Label(), func() { a.setModel(engine.FaceToFace) }),
 		fyne.NewMenuItemSeparator(),
 		fyne.NewMenuItem("Radio vs face to face", func() { a.w.tabs.SelectIndex(1) }),
 		item("Play / pause", ctrl(fyne.KeySpace), a.togglePlay),

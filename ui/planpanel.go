@@ -13,7 +13,17 @@ import (
 
 	"duosweep/canvas"
 	"duosweep/engine"
+	"duosweep/engine/planners"
 )
+
+// Labels of the models in the model choice, in engine.Models order.
+var modelLabels = func() []string {
+	out := make([]string, len(engine.Models))
+	for i, m := range engine.Models {
+		out[i] = m.Label()
+	}
+	return out
+}()
 
 const bestAvailable = "Best available"
 
@@ -22,15 +32,15 @@ const bestAvailable = "Best available"
 func (a *App) planPanel() fyne.CanvasObject {
 	w := &a.w
 	w.model = widget.NewRadioGroup(modelLabels, func(s string) {
-		for i, l := range modelLabels {
-			if l == s {
-				a.setModel(engine.Models[i])
+		for _, m := range engine.Models {
+			if m.Label() == s {
+				a.setModel(m)
 			}
 		}
 	})
 	w.model.Horizontal = true
 	w.model.Required = true
-	w.model.SetSelected(modelLabels[0])
+	w.model.SetSelected(engine.Models[0].Label())
 
 	w.planner = widget.NewSelect(nil, func(s string) {
 		name := ""
@@ -110,7 +120,7 @@ func (a *App) planPanel() fyne.CanvasObject {
 func (a *App) fillPlannerChoices() {
 	opts := []string{bestAvailable}
 	sel := bestAvailable
-	for _, p := range engine.PlannersFor(a.model) {
+	for _, p := range planners.PlannersFor(a.model) {
 		label := p.Name
 		if p.Search {
 			label += " (search)"
@@ -133,7 +143,7 @@ func (a *App) setModel(m engine.Model) {
 		return
 	}
 	a.model = m
-	a.w.model.SetSelected(modelLabel(m))
+	a.w.model.SetSelected(m.Label())
 	a.fillPlannerChoices()
 	a.replan()
 }

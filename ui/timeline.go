@@ -299,7 +299,7 @@ func (a *App) syncEvents() {
 // currentEvent is the index of the last event at or before a.playback.t, -1 before the first.
 func (a *App) currentEvent() int {
 	evs := a.playback.replay.Events
-	return sort.Search(len(evs), func(i int) bool { return evs[i].T > a.playback.t+timeTol(a.playback.t) }) - 1
+	return sort.Search(len(evs), func(i int) bool { return evs[i].T > a.playback.t+engine.Tol(a.playback.t) }) - 1
 }
 
 // agentsAt returns the agent marks of the current replay at time t.
@@ -327,7 +327,7 @@ func (a *App) drawAgents() {
 		o.Focus = a.playback.replay.Exit
 		o.Agents = a.agentsAt(a.playback.t)
 		res := a.playback.replay.Result
-		if a.playback.replay.Model == engine.FaceToFace && byOneAgent(res.Finder) && a.playback.t >= res.MeetAt-timeTol(res.MeetAt) {
+		if a.playback.replay.Model == engine.FaceToFace && byOneAgent(res.Finder) && a.playback.t >= res.MeetAt-engine.Tol(res.MeetAt) {
 			mp := res.MeetPoint
 			o.Meeting = &mp
 		}
@@ -344,7 +344,7 @@ func (a *App) togglePlay() {
 	if a.playback.replay == nil {
 		return
 	}
-	if a.playback.t >= a.playback.tMax-timeTol(a.playback.tMax) {
+	if a.playback.t >= a.playback.tMax-engine.Tol(a.playback.tMax) {
 		a.setTime(0)
 	}
 	a.playback.playing = true
@@ -409,7 +409,7 @@ func (a *App) stepNext() {
 		return
 	}
 	for _, ev := range a.playback.replay.Events {
-		if ev.T > a.playback.t+timeTol(a.playback.t) {
+		if ev.T > a.playback.t+engine.Tol(a.playback.t) {
 			a.stop()
 			a.setTime(ev.T)
 			return
