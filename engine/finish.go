@@ -23,6 +23,11 @@ type Finish struct {
 // buildFinish validates the scenario's finish and sets Site.Finish and Site.Carry.
 func (s *Site) buildFinish() error {
 	s.Finish, s.Carry = -1, 0
+	if name := s.Scenario.Model; name != "" {
+		if _, err := ParseModel(name); err != nil {
+			return fieldErr("model", name, "unknown communication model (%s)", trimPrefix(err.Error()))
+		}
+	}
 	f := s.Scenario.Finish
 	if f == nil {
 		return nil
@@ -99,4 +104,22 @@ func (s *Site) CarryLeg(x int) (real, weighted, dur float64, ok bool) {
 		return 0, 0, 0, false
 	}
 	return s.RealDist(x, s.Finish), s.Dist(x, s.Finish), s.Out(x), true
+}
+
+// PlannedModel returns the model the scenario says it is planned for, and
+// whether it names one (Scenario.Model; NewSite has checked the name).
+func (s *Site) PlannedModel() (Model, bool) {
+	if s.Scenario.Model == "" {
+		return 0, false
+	}
+	m, err := ParseModel(s.Scenario.Model)
+	return m, err == nil
+}
+
+func trimPrefix(msg string) string {
+	const p = "engine: model: "
+	if len(msg) > len(p) && msg[:len(p)] == p {
+		return msg[len(p):]
+	}
+	return msg
 }

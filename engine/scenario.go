@@ -20,6 +20,10 @@ type Scenario struct {
 	// Finish is where the crew takes the casualty once both agents have
 	// reached it (MODEL.md §10), or nil: then done(x) = evac(x). See finish.go.
 	Finish *Finish
+	// Model is the name of the communication model the site is planned for
+	// (as ParseModel reads it), "" for none: the CLI's default model and the
+	// app's model choice when the file opens. NewSite refuses an unknown name.
+	Model string
 }
 
 // Node is a junction, dead end or chamber.

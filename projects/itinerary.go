@@ -56,7 +56,7 @@ func pointName(s *engine.Site, p engine.Point) string {
 	if p.To < 0 {
 		return nodeName(s, p.From)
 	}
-	return fmt.Sprintf("%.1f %s along %s–%s from %s", p.Offset, s.Unit(), s.IDs[p.From], s.IDs[p.To], s.IDs[p.From])
+	return fmt.Sprintf("%.1f %s along %s–%s from %s", s.RealOffset(p), s.Unit(), s.IDs[p.From], s.IDs[p.To], s.IDs[p.From])
 }
 
 // WriteItinerary writes the printable, human-readable itinerary of plan p
@@ -82,7 +82,10 @@ func WriteItinerary(w io.Writer, s *engine.Site, p *engine.Plan, r *engine.Repor
 	if p.Note != "" {
 		pf("                %s\n", p.Note)
 	}
-	if r.WorstExit >= 0 {
+	if r.WorstExit >= 0 && r.OverDone {
+		ex, _ := r.ExitFor(r.WorstExit)
+		pf("Worst case:     %s out at %s, exit at %s (reached at %s)\n", formatSeconds(r.Worst), nodeName(s, s.Finish), nodeName(s, r.WorstExit), FormatDuration(ex.EvacAt))
+	} else if r.WorstExit >= 0 {
 		pf("Worst case:     %s, exit at %s\n", formatSeconds(r.Worst), nodeName(s, r.WorstExit))
 	} else {
 		pf("Worst case:     no candidates\n")
@@ -96,7 +99,18 @@ func WriteItinerary(w io.Writer, s *engine.Site, p *engine.Plan, r *engine.Repor
 	if r.HasExpected {
 		pf("Expected time:  %s\n", formatSeconds(r.Expected))
 	}
-	pf("Route lengths:  %s %.1f %s, %s %.1f %s\n", s.Names[0], r.RouteLengths[0], s.Unit(), s.Names[1], r.RouteLengths[1], s.Unit())
+	if s.HasEffort() {
+		var real [2]float64
+		for a := 0; a < 2; a++ {
+			real[a] = realRouteLength(s, p.Routes[a].Waypoints)
+		}
+		pf("Route lengths:  %s %.1f %s, %s %.1f %s walked (effort-weighted %.1f and %.1f %s)\n", s.Names[0], real[0], s.Unit(), s.Names[1], real[1], s.Unit(), r.RouteLengths[0], r.RouteLengths[1], s.Unit())
+	} else {
+		pf("Route lengths:  %s %.1f %s, %s %.1f %s\n", s.Names[0], r.RouteLengths[0], s.Unit(), s.Names[1], r.RouteLengths[1], s.Unit())
+	}
+	if r.OverDone {
+		pf("Finish:         %s, carry speed %g %s/s: worst and expected times are when the crew is out there\n", nodeName(s, s.Finish), s.Carry, s.Unit())
+	}
 	if !r.Complete {
 		ids := make([]string, len(r.Unvisited))
 		for i, v := range r.Unvisited {
@@ -141,6 +155,9 @@ func WriteItinerary(w io.Writer, s *engine.Site, p *engine.Plan, r *engine.Repor
 			pf("\n")
 		}
 	}
+	if r.OverDone {
+		writeCarryLegs(pf, s, r)
+	}
 	pf("\n%s\n", Disclaimer)
 	return bw.Flush()
 }
@@ -170,13 +187,12 @@ func agentSteps(s *engine.Site, wps []engine.Waypoint, a int) []step {
 	partner := s.Names[1-a]
 	cur := engine.At(s.Start)
 	t := 0.0
-	unit := s.Unit()
 	for _, wp := range wps {
 		p := s.Canon(wp.P)
 		d := s.PointDist(cur, p)
 		arrive := t + d/s.Speed[a]
 		if d > 0 {
-			text := fmt.Sprintf("walk to %s, %.1f %s", pointName(s, wp.P), d, unit)
+			text := fmt.Sprintf("walk to %s, %s", pointName(s, wp.P), walkLength(s, cur, p, d))
 			if cur.To < 0 && p.To < 0 {
 				if path := s.Path(cur.From, p.From); len(path) > 2 {
 					via := make([]string, 0, len(path)-2)

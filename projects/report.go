@@ -34,6 +34,11 @@ type outReport struct {
 	Complete     bool             `json:"complete"`
 	Unvisited    []string         `json:"unvisited"`
 	RouteLengths []outRouteLength `json:"route_lengths"`
+	// With a finish (MODEL.md §10; effort.go): what worst and expected are
+	// taken over ("done_at"), and the finish. Absent without a finish, when
+	// they are over evacuated_at.
+	WorstOver string     `json:"worst_over,omitempty"`
+	Finish    *outFinish `json:"finish,omitempty"`
 }
 
 type outRoute struct {
@@ -55,11 +60,13 @@ type outExit struct {
 	FoundAt     *float64 `json:"found_at"`
 	Finder      *string  `json:"finder"`
 	EvacuatedAt *float64 `json:"evacuated_at"`
+	DoneAt      *float64 `json:"done_at,omitempty"` // with a finish
 }
 
 type outWorst struct {
 	Node        *string  `json:"node"`
 	EvacuatedAt *float64 `json:"evacuated_at"`
+	DoneAt      *float64 `json:"done_at,omitempty"` // with a finish
 }
 
 type outBounds struct {
@@ -73,6 +80,9 @@ type outLowerBounds struct {
 	LB1 float64 `json:"LB1"`
 	LB2 float64 `json:"LB2"`
 	LB3 float64 `json:"LB3"` // a time (s), 0 when not computed
+	// With a finish, the finish-aware LB1 and LB2 as times (s).
+	LB1Time *float64 `json:"LB1_time,omitempty"`
+	LB2Time *float64 `json:"LB2_time,omitempty"`
 }
 
 type outRouteLength struct {
@@ -107,7 +117,7 @@ func waypointOut(s *engine.Site, wp engine.Waypoint) outWaypoint {
 	if wp.P.To < 0 {
 		o.Node = s.IDs[wp.P.From]
 	} else {
-		off := wp.P.Offset
+		off := s.RealOffset(wp.P) // files keep real offsets (FORMATS.md)
 		o.From, o.To, o.Offset = s.IDs[wp.P.From], s.IDs[wp.P.To], &off
 	}
 	return o
@@ -149,15 +159,30 @@ func WriteReport(w io.Writer, s *engine.Site, p *engine.Plan, r *engine.Report) 
 		if name := FinderName(s, ex.Finder); name != "" {
 			e.Finder = strp(name)
 		}
+		if r.OverDone {
+			e.DoneAt = finiteOrNil(ex.DoneAt)
+		}
 		o.Exits = append(o.Exits, e)
 	}
 	if r.WorstExit >= 0 {
 		o.Worst = outWorst{Node: strp(s.IDs[r.WorstExit]), EvacuatedAt: finiteOrNil(r.Worst)}
+		if r.OverDone {
+			// worst is the exit with the largest done_at; its own evacuation time beside it
+			ex, _ := r.ExitFor(r.WorstExit)
+			o.Worst.EvacuatedAt, o.Worst.DoneAt = finiteOrNil(ex.EvacAt), finiteOrNil(r.Worst)
+		}
+	}
+	if r.OverDone {
+		o.WorstOver = "done_at"
+		o.Finish = &outFinish{Node: s.FinishName(), Speed: &s.Carry}
 	}
 	if r.HasExpected {
 		o.Expected = finiteOrNil(r.Expected)
 	}
 	o.LowerBounds = outLowerBounds{LB1: r.Bounds.LB1, LB2: r.Bounds.LB2, LB3: r.Bounds.LB3}
+	if r.Bounds.Finish {
+		o.LowerBounds.LB1Time, o.LowerBounds.LB2Time = finiteOrNil(r.Bounds.LB1T), finiteOrNil(r.Bounds.LB2T)
+	}
 	for _, v := range r.Unvisited {
 		o.Unvisited = append(o.Unvisited, s.IDs[v])
 	}
@@ -330,7 +355,11 @@ func routeIn(s *engine.Site, i int, rt wireRoute) (engine.Route, error) {
 			if err != nil {
 				return route, err
 			}
-			pt = engine.Point{From: u, To: v, Offset: off}
+			// the file's offset is a real length; the engine's is effort-weighted
+			if rl := s.RealLen[s.Edge(u, v)]; off < 0 || off > rl*(1+1e-9) {
+				return route, errf("%s: %s: must be between 0 and the corridor's length %s", f("offset"), fmtG(off), fmtG(rl))
+			}
+			pt = engine.Point{From: u, To: v, Offset: math.Min(s.WeightedOffset(u, v, off), s.EW[s.Edge(u, v)])}
 			if err := s.CheckPoint(pt); err != nil {
 				return route, errf("%s: %s: %s", f("offset"), fmtG(off), trimEngine(err.Error()))
 			}

@@ -27,6 +27,8 @@ type outScenario struct {
 	Corridors []outCorridor `json:"corridors"`
 	Backdrop  *outBackdrop  `json:"backdrop,omitempty"` // drawing.go
 	GeoRef    *outGeoRef    `json:"georef,omitempty"`   // drawing.go
+	Finish    *outFinish    `json:"finish,omitempty"`   // effort.go
+	Model     string        `json:"model,omitempty"`    // effort.go
 }
 
 type outAgent struct {
@@ -49,6 +51,7 @@ type outCorridor struct {
 	Length float64      `json:"length"`
 	Closed bool         `json:"closed,omitempty"`
 	Path   [][2]float64 `json:"path,omitempty"`
+	Effort *float64     `json:"effort,omitempty"` // effort.go
 }
 
 // Save writes sc as an indented scenario file with a stable field order. It
@@ -94,6 +97,9 @@ func checkFinite(sc engine.Scenario) error {
 			return errf("save: corridors[%d].length: %g: not a finite number", i, c.Length)
 		}
 	}
+	if err := checkEffortFinite(sc); err != nil {
+		return err
+	}
 	return checkDrawingFinite(sc)
 }
 
@@ -132,9 +138,10 @@ func encode(w io.Writer, sc engine.Scenario) error {
 		out.Nodes[i] = o
 	}
 	for i, c := range sc.Corridors {
-		out.Corridors[i] = outCorridor{From: c.From, To: c.To, Length: c.Length, Closed: c.Closed, Path: c.Path}
+		out.Corridors[i] = outCorridor{From: c.From, To: c.To, Length: c.Length, Closed: c.Closed, Path: c.Path, Effort: c.Effort}
 	}
 	out.Backdrop, out.GeoRef = outDrawing(sc)
+	out.Finish, out.Model = outFinishModel(sc)
 	return writeJSON(w, "save", out)
 }
 

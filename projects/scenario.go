@@ -72,6 +72,8 @@ type wireScenario struct {
 	Corridors []wireCorridor  `json:"corridors"`
 	Backdrop  json.RawMessage `json:"backdrop"` // drawing.go
 	GeoRef    json.RawMessage `json:"georef"`   // drawing.go
+	Finish    json.RawMessage `json:"finish"`   // effort.go
+	Model     json.RawMessage `json:"model"`    // effort.go
 }
 
 type wireAgent struct {
@@ -94,6 +96,7 @@ type wireCorridor struct {
 	Length json.RawMessage `json:"length"`
 	Closed json.RawMessage `json:"closed"` // drawing.go
 	Path   json.RawMessage `json:"path"`   // drawing.go
+	Effort json.RawMessage `json:"effort"` // effort.go
 }
 
 // absent reports whether a raw value is missing or null.
@@ -321,9 +324,15 @@ func (w *wireScenario) scenario() (engine.Scenario, error) {
 		if err := c.drawing(f, &cr); err != nil {
 			return engine.Scenario{}, err
 		}
+		if err := c.effort(f, &cr); err != nil {
+			return engine.Scenario{}, err
+		}
 		sc.Corridors[i] = cr
 	}
 	if err := w.drawing(&sc); err != nil {
+		return engine.Scenario{}, err
+	}
+	if err := w.finishModel(&sc); err != nil {
 		return engine.Scenario{}, err
 	}
 	return sc, nil

@@ -3,6 +3,7 @@ package main
 import (
 	"flag"
 	"fmt"
+	"io"
 	"math"
 
 	"duosweep/engine"
@@ -34,17 +35,24 @@ func runBounds(e *env, args []string) error {
 	w := e.stdout
 	fmt.Fprintf(w, "site:                %s\n", s.Scenario.Name)
 	fmt.Fprintf(w, "nodes:               %d (%d candidates)\n", s.N, len(s.Candidates()))
+	if s.HasEffort() {
+		fmt.Fprintf(w, "lengths:             effort-weighted (length × effort, MODEL.md §9)\n")
+	}
 	fmt.Fprintf(w, "W:                   %.2f %s (corridor length of the tree to search)\n", b.W, u)
 	fmt.Fprintf(w, "L:                   %.2f %s (farthest candidate from the start)\n", b.L, u)
 	fmt.Fprintf(w, "L2:                  %.2f %s (farthest candidate from the path to it)\n", b.L2, u)
 	fmt.Fprintf(w, "LB1 = W:             %.2f %s\n", b.LB1, u)
 	fmt.Fprintf(w, "LB2 = L + 2*L2:      %.2f %s\n", b.LB2, u)
 	if b.LB3 > 0 {
-		fmt.Fprintf(w, "LB3 (cover split):   %.2f s (the last find: both routes end there and share the tree; docs/lower-bound.md)\n", b.LB3)
+		fmt.Fprintf(w, "LB3 (cover split):   %.2f s (the last find: both routes end there and share the tree%s; docs/lower-bound.md)\n", b.LB3, carryNote(b))
 	} else {
 		fmt.Fprintf(w, "LB3 (cover split):   not computed (site too large for the exact split)\n")
 	}
-	fmt.Fprintf(w, "LB:                  %.2f s (%s) = max(LB1 / v, LB2 / v, LB3), v = %g %s/s the faster speed\n", b.LB, projects.FormatDuration(b.LB), speed, u)
+	if b.Finish {
+		printFinishBounds(w, s, b, speed)
+	} else {
+		fmt.Fprintf(w, "LB:                  %.2f s (%s) = max(LB1 / v, LB2 / v, LB3), v = %g %s/s the faster speed\n", b.LB, projects.FormatDuration(b.LB), speed, u)
+	}
 	fmt.Fprintf(w, "farthest candidate:  %s\n", nodeLabel(s, b.Far))
 	return nil
 }
@@ -54,4 +62,26 @@ func nodeLabel(s *engine.Site, v int) string {
 		return s.IDs[v] + " (" + l + ")"
 	}
 	return s.IDs[v]
+}
+
+// printFinishBounds prints the finish-aware bounds (MODEL.md §10,
+// docs/lower-bound.md): every bound is of done(x), the time the crew is out.
+func printFinishBounds(w io.Writer, s *engine.Site, b engine.Bounds, speed float64) {
+	u := s.Unit()
+	fmt.Fprintf(w, "finish:              %s, carry speed %g %s/s; o(x) = d(x, finish) / carry speed\n", nodeLabel(s, s.Finish), s.Carry, u)
+	fmt.Fprintf(w, "min o(x):            %.2f s (the nearest candidate's carry)\n", b.MinOut)
+	fmt.Fprintf(w, "LB1 with carry:      %.2f s = LB1 / v + min o(x)\n", b.LB1T)
+	how := "every candidate pair"
+	if !b.LB2Pairs {
+		how = fmt.Sprintf("more than %d candidates: max(LB2 / v + min o, max d(s, x) / v + o(x))", engine.LB2PairCap)
+	}
+	fmt.Fprintf(w, "LB2 with carry:      %.2f s = max over pairs y, z of min((d(s,y) + d(y,z)) / v + o(z), (d(s,z) + d(z,y)) / v + o(y)) (%s)\n", b.LB2T, how)
+	fmt.Fprintf(w, "LB:                  %.2f s (%s) = max(LB1 with carry, LB2 with carry, LB3) for the crew out at the finish, v = %g %s/s the faster speed\n", b.LB, projects.FormatDuration(b.LB), speed, u)
+}
+
+func carryNote(b engine.Bounds) string {
+	if b.Finish {
+		return ", then the carry from it"
+	}
+	return ""
 }

@@ -215,6 +215,15 @@ func parseModel(v string) (engine.Model, error) {
 	return m, nil
 }
 
+// scenarioModel is the default model when --model is absent: the
+// scenario's "model" field, else radio.
+func scenarioModel(s *engine.Site) engine.Model {
+	if m, ok := s.PlannedModel(); ok {
+		return m
+	}
+	return engine.Radio
+}
+
 func plannerList() string {
 	ps := planners.Planners()
 	if len(ps) == 0 {

@@ -26,7 +26,7 @@ type evalOpts struct {
 func evalFlags() (*flag.FlagSet, *evalOpts) {
 	o := &evalOpts{}
 	fs := newFlags("eval")
-	fs.StringVar(&o.model, "model", "", `communication model: radio or face-to-face (default: the plan file's "model", else radio)`)
+	fs.StringVar(&o.model, "model", "", `communication model: radio or face-to-face (default: the plan file's "model", else the scenario's, else radio)`)
 	fs.BoolVar(&o.json, "json", false, "write the report as JSON instead of the itinerary")
 	return fs, o
 }
@@ -56,8 +56,11 @@ func runEval(e *env, args []string) error {
 	if err != nil {
 		return fmt.Errorf("%s: %w", pos[1], err)
 	}
-	if o.model == "" && h.HasModel {
-		m = h.Model
+	if o.model == "" {
+		m = scenarioModel(s)
+		if h.HasModel {
+			m = h.Model
+		}
 	}
 	r, err := engine.Evaluate(s, p, m)
 	if err != nil {

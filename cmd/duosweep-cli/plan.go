@@ -3,6 +3,8 @@ package main
 import (
 	"flag"
 
+	"duosweep/engine"
+
 	"duosweep/engine/planners"
 	"duosweep/projects"
 )
@@ -27,7 +29,7 @@ type planOpts struct {
 func planFlags() (*flag.FlagSet, *planOpts) {
 	o := &planOpts{}
 	fs := newFlags("plan")
-	fs.StringVar(&o.model, "model", "radio", "communication model: radio or face-to-face")
+	fs.StringVar(&o.model, "model", "", `communication model: radio or face-to-face (default: the scenario's "model", else radio)`)
 	fs.StringVar(&o.planner, "planner", "", "planner name (default: the best of the non-search planners)")
 	fs.BoolVar(&o.json, "json", false, "write the plan report as JSON instead of the itinerary")
 	fs.Float64Var(&o.seconds, "seconds", 0, "time budget of a search planner in seconds (0: its default)")
@@ -41,9 +43,11 @@ func runPlan(e *env, args []string) error {
 	if err != nil {
 		return err
 	}
-	m, err := parseModel(o.model)
-	if err != nil {
-		return err
+	var m engine.Model
+	if o.model != "" {
+		if m, err = parseModel(o.model); err != nil {
+			return err
+		}
 	}
 	b, err := budget(o.seconds)
 	if err != nil {
@@ -57,6 +61,9 @@ func runPlan(e *env, args []string) error {
 	s, err := loadSite(pos[0])
 	if err != nil {
 		return err
+	}
+	if o.model == "" {
+		m = scenarioModel(s)
 	}
 	p, r, err := makePlan(e, s, o.planner, m, planners.Options{Seed: o.seed, Budget: b})
 	if err != nil {
