@@ -24,6 +24,11 @@ func FuzzLoad(f *testing.F) {
 	f.Add([]byte(`{"format":"duosweep-scenario","version":1,"start":"a","nodes":[{"id":"a"}]}`))
 	// second-wave drawing fields: closed corridors closing a loop, paths, backdrop, georef
 	f.Add([]byte(`{"format":"duosweep-scenario","version":1,"start":"a","nodes":[{"id":"a"},{"id":"b"},{"id":"c"}],"corridors":[{"from":"a","to":"b","length":1,"path":[[0.5,1]]},{"from":"b","to":"c","length":1},{"from":"c","to":"a","length":2,"closed":true}],"backdrop":{"image":"p.png","scale":0.5},"georef":{"crs":"lonlat","origin":[7,46],"scale":[77000,111000]}}`))
+	// second-wave model fields: effort, finish with and without a speed, model; and bad values of each
+	f.Add([]byte(`{"format":"duosweep-scenario","version":1,"start":"a","model":"face-to-face","nodes":[{"id":"a"},{"id":"b"},{"id":"c"}],"corridors":[{"from":"a","to":"b","length":1,"effort":2.5},{"from":"b","to":"c","length":3,"effort":0.5}],"finish":{"node":"a","speed":0.6}}`))
+	f.Add([]byte(`{"format":"duosweep-scenario","version":1,"start":"a","model":"radio","nodes":[{"id":"a"},{"id":"b"}],"corridors":[{"from":"a","to":"b","length":1,"effort":100}],"finish":{"node":"b"}}`))
+	f.Add([]byte(`{"format":"duosweep-scenario","version":1,"start":"a","model":"x","nodes":[{"id":"a"},{"id":"b"}],"corridors":[{"from":"a","to":"b","length":1,"effort":0}],"finish":{"node":"z","speed":-1}}`))
+	f.Add([]byte(`{"format":"duosweep-scenario","version":1,"start":"a","nodes":[{"id":"a"},{"id":"b"}],"corridors":[{"from":"a","to":"b","length":1,"effort":"2"}],"finish":{"speed":1},"model":7}`))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		sc, err := Load(bytes.NewReader(data))
 		if err != nil {
