@@ -31,7 +31,8 @@ func TestDemoBoundsReference(t *testing.T) {
 			g.AddNode(simple.Node(i))
 		}
 		for _, c := range sc.Corridors {
-			g.SetWeightedEdge(g.NewWeightedEdge(simple.Node(sc.NodeIndex(c.From)), simple.Node(sc.NodeIndex(c.To)), c.Length))
+			// effort-weighted lengths (MODEL.md §9)
+			g.SetWeightedEdge(g.NewWeightedEdge(simple.Node(sc.NodeIndex(c.From)), simple.Node(sc.NodeIndex(c.To)), c.Length*c.EffortFactor()))
 		}
 		all := path.DijkstraAllPaths(g)
 		d := func(u, v int) float64 { return all.Weight(int64(u), int64(v)) }
@@ -67,7 +68,23 @@ func TestDemoBoundsReference(t *testing.T) {
 		assert.InDelta(t, lb2, b.LB2, 1e-9, sc.Name)
 		// LB3 has its own enumeration reference (engine/lb3_test.go)
 		fast := math.Max(s.Speed[0], s.Speed[1])
-		assert.GreaterOrEqual(t, b.LB3, W/fast*(1-1e-12), sc.Name)
-		assert.InDelta(t, math.Max(math.Max(W, lb2)/fast, b.LB3), b.LB, 1e-9, sc.Name)
+		// with a finish (the demo's portal), o(x) = d(x, F)/v_c and the
+		// finish-aware forms of docs/lower-bound.md
+		o := func(x int) float64 { return 0 }
+		if sc.Finish != nil {
+			f := sc.NodeIndex(sc.Finish.Node)
+			o = func(x int) float64 { return d(x, f) / s.Carry }
+		}
+		minO, lb2t := math.Inf(1), 0.0
+		for _, y := range cands {
+			minO = math.Min(minO, o(y))
+			for _, z := range cands {
+				lb2t = math.Max(lb2t, math.Min((d(st, y)+d(y, z))/fast+o(z), (d(st, z)+d(z, y))/fast+o(y)))
+			}
+		}
+		assert.InDelta(t, lb2t, b.LB2T, 1e-9, sc.Name)
+		assert.InDelta(t, W/fast+minO, b.LB1T, 1e-9, sc.Name)
+		assert.GreaterOrEqual(t, b.LB3, W/fast*(1-1e-12)+minO, sc.Name)
+		assert.InDelta(t, math.Max(math.Max(W/fast+minO, lb2t), b.LB3), b.LB, 1e-9, sc.Name)
 	}
 }

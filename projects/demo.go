@@ -3,6 +3,7 @@ package projects
 import (
 	"bytes"
 	_ "embed"
+	"io"
 
 	"duosweep/engine"
 )
@@ -12,8 +13,9 @@ var demoJSON []byte
 
 // DemoJSON returns a copy of the bundled demo scenario file: an invented
 // training site ("Drill site: East service gallery (invented)") of 30
-// junctions with two agents, a start at the entrance and candidate
-// probabilities summing to 1.
+// junctions with two agents, a start at the entrance, candidate
+// probabilities summing to 1, a radio-covered main gallery, two slow
+// corridors (effort 2.5 and 1.8) and a finish at the portal.
 func DemoJSON() []byte { return append([]byte(nil), demoJSON...) }
 
 // Demo returns the bundled demo scenario. It panics only if the embedded file
@@ -24,4 +26,15 @@ func Demo() engine.Scenario {
 		panic("projects: the embedded demo scenario is invalid: " + err.Error())
 	}
 	return sc
+}
+
+// SaveDemoFile writes the bundled demo file to path exactly as bundled,
+// atomically (see SaveFile).
+func SaveDemoFile(path string) error {
+	return writeFileAtomic(path, func(w io.Writer) error {
+		if _, err := w.Write(demoJSON); err != nil {
+			return errf("save: %v", err)
+		}
+		return nil
+	})
 }

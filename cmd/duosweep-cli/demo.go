@@ -25,5 +25,5 @@ func runDemo(e *env, args []string) error {
 		_, err := e.stdout.Write(projects.DemoJSON())
 		return writeOut(err)
 	}
-	return projects.SaveFile(pos[0], projects.Demo())
+	return projects.SaveDemoFile(pos[0])
 }
