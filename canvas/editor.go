@@ -466,7 +466,7 @@ func (e *Editor) nodeWorld(i int) geom.Pt {
 
 // PointXY returns where an engine point is drawn, in widget coordinates: a
 // node's position, or the straight-line interpolation From→To by
-// Offset/Length of the corridor joining them.
+// Offset/(Length·effort) of the corridor joining them (offsets are effort-weighted).
 func (e *Editor) PointXY(p engine.Point) fyne.Position {
 	return toPos(e.view.ToScreen(e.pointWorld(p)))
 }
@@ -481,7 +481,13 @@ func (e *Editor) pointWorld(p engine.Point) geom.Pt {
 	if !ok || !(e.sc.Corridors[ci].Length > 0) {
 		return a
 	}
-	return geom.Lerp(a, b, p.Offset/e.sc.Corridors[ci].Length)
+	// engine offsets are effort-weighted (engine/effort.go)
+	c := e.sc.Corridors[ci]
+	w := c.Length * c.EffortFactor()
+	if !(w > 0) || math.IsInf(w, 0) {
+		return a
+	}
+	return geom.Lerp(a, b, p.Offset/w)
 }
 
 // View returns the zoom (widget units per drawing unit) and the offset of the

@@ -347,3 +347,43 @@ func TestFinishWorkedByHand(t *testing.T) {
 }
 
 var _ = fmt.Sprint
+
+// TestReplayCarryLeg: with a finish, a replay ends at done(x) with both
+// agents at the finish, having walked there from the exit at the carry speed.
+func TestReplayCarryLeg(t *testing.T) {
+	for i := 0; i < 40; i++ {
+		sc := withFinish(testtrees.Random(testtrees.NewRand(uint64(34_000+i)), testtrees.Options{MaxNodes: 20}), uint64(200+i))
+		s, err := engine.NewSite(sc)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, m := range engine.Models {
+			p, r, err := planners.BestPlan(context.Background(), s, m)
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, ex := range r.Exits {
+				rp, err := engine.NewReplay(s, p, m, ex.Node)
+				if err != nil {
+					t.Fatalf("tree %d %s exit %d: %v", i, m, ex.Node, err)
+				}
+				if !close9(rp.End, ex.DoneAt) {
+					t.Fatalf("tree %d %s exit %d: replay ends %v, done %v", i, m, ex.Node, rp.End, ex.DoneAt)
+				}
+				last := rp.Events[len(rp.Events)-1]
+				if last.Kind != engine.EventOut || !close9(last.T, ex.DoneAt) {
+					t.Fatalf("tree %d: last event %+v, want out at %v", i, last, ex.DoneAt)
+				}
+				walkable := s.Carry <= s.Speed[0] && s.Carry <= s.Speed[1]
+				for a := 0; a < 2 && walkable; a++ {
+					if d := s.NodeDist(rp.Position(a, ex.DoneAt), s.Finish); d > 1e-6 {
+						t.Fatalf("tree %d %s exit %d: agent %d is %v from the finish at done", i, m, ex.Node, a, d)
+					}
+					if d := s.NodeDist(rp.Position(a, ex.EvacAt), ex.Node); d > 1e-6 {
+						t.Fatalf("tree %d: agent %d not at the exit at evac", i, a)
+					}
+				}
+			}
+		}
+	}
+}

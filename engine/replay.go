@@ -18,6 +18,8 @@ const (
 	EventMet
 	// EventArrived: an agent reaches the exit knowing it is there.
 	EventArrived
+	// EventOut: both agents, with the casualty, reach the finish (MODEL.md §10).
+	EventOut
 )
 
 func (k EventKind) String() string {
@@ -30,6 +32,8 @@ func (k EventKind) String() string {
 		return "met"
 	case EventArrived:
 		return "arrived"
+	case EventOut:
+		return "out"
 	}
 	return fmt.Sprintf("EventKind(%d)", int(k))
 }
@@ -50,9 +54,10 @@ type Replay struct {
 	Exit   int
 	Model  Model
 	Result ExitResult
-	End    float64 // the evacuation time
+	End    float64 // done(x): the evacuation time, plus the carry to the finish when there is one
 	Events []Event // in time order
 	full   [2]*Trajectory
+	routes [2]Route   // the routes full was built from
 	learn  [2]float64 // when each agent knows the exit
 }
 
@@ -72,7 +77,7 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 	fv := [2][]float64{trs[0].FirstVisits(), trs[1].FirstVisits()}
 	ex, tl := exitTelling(s, trs, fv, exit, m)
 	ex.DoneAt = ex.EvacAt + s.Out(exit)
-	rp := &Replay{Exit: exit, Model: m, Result: ex, End: ex.EvacAt}
+	rp := &Replay{Exit: exit, Model: m, Result: ex, End: ex.DoneAt}
 	if ex.Finder == Nobody {
 		rp.full = trs
 		rp.learn = [2]float64{math.Inf(1), math.Inf(1)}
@@ -81,6 +86,7 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 	x := At(exit)
 	var mkErr error
 	mk := func(r Route, a int) *Trajectory {
+		rp.routes[a] = r
 		tr, err := s.Trajectory(r, a)
 		if err != nil && mkErr == nil {
 			mkErr = fmt.Errorf("engine: replay of %q built an invalid route (an engine bug): %w", s.IDs[exit], err)
@@ -100,7 +106,7 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 		if mkErr != nil {
 			return nil, mkErr
 		}
-		return rp, nil
+		return rp, rp.carry(s, p, exit)
 	}
 	f, q := ex.Finder, 1-ex.Finder
 	t := ex.FoundAt
@@ -148,7 +154,34 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 		return nil, mkErr
 	}
 	sort.SliceStable(rp.Events, func(i, j int) bool { return rp.Events[i].T < rp.Events[j].T })
-	return rp, nil
+	return rp, rp.carry(s, p, exit)
+}
+
+// carry adds the carry leg (MODEL.md §10): with a finish, both agents wait at
+// the exit until evac(x), then walk together to the finish at the carry
+// speed, out at done(x). The walk is drawn only where the carry speed is no
+// faster than either agent's walking speed (a route may not go faster); the
+// event and End are there either way.
+func (rp *Replay) carry(s *Site, p *Plan, exit int) error {
+	if !s.HasFinish() || rp.Result.Finder == Nobody {
+		return nil
+	}
+	ex := rp.Result
+	d := s.Dist(exit, s.Finish)
+	if d > 0 && s.Carry <= s.Speed[0] && s.Carry <= s.Speed[1] {
+		for a := 0; a < 2; a++ {
+			r := Route{Waypoints: append([]Waypoint(nil), rp.routes[a].Waypoints...)}
+			r.Waypoints = append(r.Waypoints, Waypoint{P: At(exit), T: ex.EvacAt}, Waypoint{P: At(s.Finish), T: ex.DoneAt})
+			full, err := s.Trajectory(r, a)
+			if err != nil {
+				return fmt.Errorf("engine: replay of %q built an invalid carry leg (an engine bug): %w", s.IDs[exit], err)
+			}
+			rp.full[a] = full
+		}
+	}
+	rp.Events = append(rp.Events, Event{T: ex.DoneAt, Kind: EventOut, Agent: Both, At: At(s.Finish),
+		Text: fmt.Sprintf("%s and %s carry the casualty to %s (%.1f %s): out", s.Names[0], s.Names[1], s.Label(s.Finish), s.RealDist(exit, s.Finish), s.Unit())})
+	return nil
 }
 
 // prefixRoute returns the waypoints of r that the agent has left by time ta

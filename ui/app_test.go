@@ -254,7 +254,9 @@ func TestCandidateTableSorts(t *testing.T) {
 			t.Fatalf("descending by evacuation: row %d %v after %v", i, evac(i), evac(i-1))
 		}
 	}
-	if got := a.table.cell(0, colNode); !strings.Contains(got, "◆") || a.planning.report.Exits[a.table.rows[0]].Node != a.planning.report.WorstExit {
+	// with a finish (the demo's portal) the worst exit is the one with the
+	// latest done(x), not necessarily the latest evacuation
+	if got := a.table.cell(0, colNode); !a.planning.report.OverDone && (!strings.Contains(got, "◆") || a.planning.report.Exits[a.table.rows[0]].Node != a.planning.report.WorstExit) {
 		t.Fatalf("first row when sorted by evacuation descending is %q, want the worst exit", got)
 	}
 	a.table.sortBy(colFoundAt)
