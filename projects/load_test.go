@@ -3,13 +3,13 @@ package projects
 import (
 	"bytes"
 	"encoding/json"
-	"reflect"
 	"errors"
 	"flag"
 	"io"
 	"math"
 	"os"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
 
