@@ -22,3 +22,14 @@ func TestScratchPictures(t *testing.T) {
 	WriteSVG(f, &m.Scene)
 	f.Close()
 }
+
+func TestScratchPDF(t *testing.T) {
+	in := demoInput(t, engine.Radio)
+	f, _ := os.Create("/tmp/brief/demo.pdf")
+	n, err := WritePDF(f, in, PDFOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	f.Close()
+	t.Log("pages", n)
+}
