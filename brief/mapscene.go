@@ -54,6 +54,8 @@ type MapOptions struct {
 	Title string
 	// Notice adds the planning-aid notice as the last line.
 	Notice bool
+	// Caption reserves a line under the title (the animation's event captions).
+	Caption bool
 }
 
 // Map is a site map as a Scene, with what the animation needs to draw on top
@@ -127,6 +129,9 @@ func BuildMap(in Input, w, h float64, opt MapOptions) (*Map, error) {
 	if opt.Title != "" {
 		m.add(&Label{At: Pt{X: w / 2, Y: 1.4 * fs}, Text: opt.Title, Size: 1.15 * fs, Color: Ink, Anchor: Middle, Bold: true, Class: "title"})
 		top = 2.0 * fs
+	}
+	if opt.Caption {
+		top += 1.5 * fs
 	}
 	if opt.Notice {
 		m.add(&Label{At: Pt{X: w / 2, Y: h - 0.5*fs}, Text: Notice, Size: noticeSize(w, fs), Color: Ink, Anchor: Middle, Class: "notice"})

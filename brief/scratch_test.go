@@ -1,6 +1,8 @@
 package brief
 
 import (
+	"image"
+	"image/png"
 	"os"
 	"testing"
 
@@ -32,4 +34,21 @@ func TestScratchPDF(t *testing.T) {
 	}
 	f.Close()
 	t.Log("pages", n)
+}
+
+func TestScratchGIF(t *testing.T) {
+	in := demoInput(t, engine.Radio)
+	f, _ := os.Create("/tmp/brief/demo.gif")
+	ff := engine.FaceToFace
+	err := WriteGIF(t.Context(), f, in, GIFOptions{Compare: &ff})
+	if err != nil {
+		t.Fatal(err)
+	}
+	f.Close()
+	a, _ := NewAnimation(in, GIFOptions{Compare: &ff})
+	img := image.NewRGBA(image.Rect(0, 0, 640, 400))
+	a.Frame(img, 120, 200)
+	g, _ := os.Create("/tmp/brief/frame120.png")
+	png.Encode(g, img)
+	g.Close()
 }
