@@ -233,8 +233,19 @@ func (m *Map) nodes() {
 		return 3
 	}
 	sort.SliceStable(order, func(i, j int) bool { return rank(order[i]) < rank(order[j]) })
+	// on a crowded map labels are few and keep a margin, so that the ones
+	// drawn can be read: the worst exit and the start always get a try
+	maxLabels := s.N
+	if s.N > 150 {
+		maxLabels = 40
+	}
+	pad := 0.2 * m.FontSize
+	placed := 0
 	var dirs, cands []Pt
 	for _, v := range order {
+		if placed >= maxLabels && rank(v) > 1 {
+			break
+		}
 		text := s.IDs[v]
 		bold := false
 		if v == r.WorstExit {
@@ -248,17 +259,18 @@ func (m *Map) nodes() {
 		for _, u := range m.neighbours(v) {
 			dirs = append(dirs, m.proj.node(u).Sub(c))
 		}
-		gap := m.R + 2
+		gap := m.R + 2 + pad
 		if v == r.WorstExit {
-			gap = m.R + math.Max(1.5, 0.55*m.R) + 2
+			gap = m.R + math.Max(1.5, 0.55*m.R) + 2 + pad
 		}
 		cands = geom.LabelCandidates(dirs, tw, th, gap, cands[:0])
 		for _, off := range cands {
 			b := geom.Rect{Min: c.Add(off), Max: c.Add(off).Add(Pt{X: tw, Y: th})}
-			if b.Min.X < 1 || b.Max.X > m.W-1 || b.Min.Y < m.Area.Min.Y || b.Max.Y > m.Area.Max.Y || !pl.Free(b) {
+			if b.Min.X < 1 || b.Max.X > m.W-1 || b.Min.Y < m.Area.Min.Y || b.Max.Y > m.Area.Max.Y || !pl.Free(b.Grow(pad)) {
 				continue
 			}
 			pl.Add(b)
+			placed++
 			col := Ink
 			if v == r.WorstExit {
 				col = WorstInk
