@@ -166,6 +166,11 @@ func BuildMap(in Input, w, h float64, opt MapOptions) (*Map, error) {
 		}
 	}
 	m.nodes()
+	if !opt.NoRoutes {
+		for _, c := range m.rendezvous() {
+			m.add(diamondPath(c, 1.3*m.R+1.5, Transparent, Ink, math.Max(1, 0.3*m.R), "rendezvous"))
+		}
+	}
 	m.scaleBar(fs)
 	m.add(legend...)
 	return m, nil
@@ -361,6 +366,12 @@ func (m *Map) legend(x0, x1, bottom, fs float64) ([]Shape, float64) {
 			return out
 		}})
 	}
+	if m.hasRendezvous() {
+		items = append(items, item{w: 1.2*fs + TextWidth("rendezvous", ls, false), draw: func(x, y float64) []Shape {
+			c := Pt{X: x + 0.4*fs, Y: y - 0.3*ls}
+			return []Shape{diamondPath(c, 0.38*fs, Transparent, Ink, 0.1*fs, "legend"), text(x+1.0*fs, y, "rendezvous")}
+		}})
+	}
 	if r.WorstExit >= 0 {
 		items = append(items, item{w: 1.2*fs + TextWidth("worst exit", ls, false), draw: func(x, y float64) []Shape {
 			c := Pt{X: x + 0.4*fs, Y: y - 0.3*ls}
@@ -403,3 +414,43 @@ func (m *Map) legend(x0, x1, bottom, fs float64) ([]Shape, float64) {
 
 // Transparent is the zero colour: no stroke or no fill.
 var Transparent = color.NRGBA{}
+
+// hasRendezvous reports whether a route has a rendezvous waypoint.
+func (m *Map) hasRendezvous() bool {
+	for _, r := range m.in.Plan.Routes {
+		for _, wp := range r.Waypoints {
+			if wp.Rendezvous {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// rendezvous returns the drawing positions of the routes' rendezvous
+// waypoints (each place once).
+func (m *Map) rendezvous() []Pt {
+	var out []Pt
+	for _, r := range m.in.Plan.Routes {
+		for _, wp := range r.Waypoints {
+			if !wp.Rendezvous {
+				continue
+			}
+			c := m.PointPos(wp.P)
+			dup := false
+			for _, q := range out {
+				dup = dup || geom.Dist(q, c) < 0.5
+			}
+			if !dup {
+				out = append(out, c)
+			}
+		}
+	}
+	return out
+}
+
+// diamondPath is a closed diamond of half-diagonal r centred on c.
+func diamondPath(c Pt, r float64, fill, stroke color.NRGBA, w float64, class string) *Path {
+	return &Path{Pts: []Pt{{X: c.X, Y: c.Y - r}, {X: c.X + r, Y: c.Y}, {X: c.X, Y: c.Y + r}, {X: c.X - r, Y: c.Y}}, Closed: true,
+		Fill: fill, Stroke: stroke, Width: w, Class: class}
+}

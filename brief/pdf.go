@@ -181,7 +181,11 @@ func Rule(in Input) ([]string, error) {
 		}
 		out = append(out, fmt.Sprintf("If the exit is at the worst exit, %s:", projects.NodeName(s, r.WorstExit)))
 		for _, ev := range rp.Events {
-			out = append(out, fmt.Sprintf("   %s  %s", projects.FormatDuration(ev.T), ev.Text))
+			text := ev.Text
+			if ev.Kind == engine.EventMet {
+				text += "; they meet at " + projects.PointName(s, ev.At)
+			}
+			out = append(out, fmt.Sprintf("   %s  %s", projects.FormatDuration(ev.T), text))
 		}
 	}
 	var rv []string
