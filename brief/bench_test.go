@@ -7,6 +7,7 @@ import (
 
 	"duosweep/engine"
 	"duosweep/engine/gen"
+	"duosweep/engine/planners"
 )
 
 // Speed goals (issue 11): the demo's PDF under 1 s, a 2,000-junction
@@ -31,7 +32,7 @@ func BenchmarkPDF2000(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	p, r, err := engine.BestPlan(context.Background(), s, engine.Radio)
+	p, r, err := planners.BestPlan(context.Background(), s, engine.Radio)
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -6,6 +6,7 @@ import (
 	"time"
 
 	"duosweep/engine"
+	"duosweep/engine/planners"
 	"duosweep/projects"
 )
 
@@ -19,7 +20,7 @@ func demoInput(t testing.TB, m engine.Model) Input {
 	if err != nil {
 		t.Fatal(err)
 	}
-	p, r, err := engine.BestPlan(context.Background(), s, m)
+	p, r, err := planners.BestPlan(context.Background(), s, m)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -151,9 +151,14 @@ func BuildMap(in Input, w, h float64, opt MapOptions) (*Map, error) {
 	m.RouteW = math.Max(0.9, math.Min(4, 0.8*m.R))
 
 	// corridors: a light band the routes run on
-	for e := range s.EU {
-		a, b := m.proj.node(int(s.EU[e])), m.proj.node(int(s.EV[e]))
-		m.add(&Path{Pts: []Pt{a, b}, Stroke: Faint, Width: 2.4 * m.RouteW, Class: "corridor"})
+	// closed corridors (on the drawing, never walked): thin and dotted
+	for e, c := range s.Scenario.Corridors {
+		if c.Closed {
+			w := math.Max(0.6, 0.5*m.RouteW)
+			m.add(&Path{Pts: m.proj.corridorPts(e), Stroke: Muted, Width: w, Dash: []float64{w, 2 * w}, Class: "closed"})
+		} else {
+			m.add(&Path{Pts: m.proj.corridorPts(e), Stroke: Faint, Width: 2.4 * m.RouteW, Class: "corridor"})
+		}
 	}
 	if !opt.NoRoutes {
 		for a := 0; a < 2; a++ {
@@ -365,6 +370,18 @@ func (m *Map) legend(x0, x1, bottom, fs float64) ([]Shape, float64) {
 			out = append(out, text(bx+barW+0.3*fs, y, hi))
 			return out
 		}})
+	}
+	for _, c := range s.Scenario.Corridors {
+		if !c.Closed {
+			continue
+		}
+		items = append(items, item{w: sw + 0.4*fs + TextWidth("closed corridor", ls, false), draw: func(x, y float64) []Shape {
+			my := y - 0.3*ls
+			w := math.Max(0.6, 0.1*fs)
+			return []Shape{&Path{Pts: []Pt{{X: x, Y: my}, {X: x + sw, Y: my}}, Stroke: Muted, Width: w, Dash: []float64{w, 2 * w}, Class: "legend"},
+				text(x+sw+0.4*fs, y, "closed corridor")}
+		}})
+		break
 	}
 	if m.hasRendezvous() {
 		items = append(items, item{w: 1.2*fs + TextWidth("rendezvous", ls, false), draw: func(x, y float64) []Shape {

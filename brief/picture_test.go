@@ -13,6 +13,7 @@ import (
 	"testing"
 
 	"duosweep/engine"
+	"duosweep/engine/planners"
 )
 
 // svgPath is what the test reads back from an SVG path element.
@@ -230,5 +231,65 @@ func TestMapRefusesBadSize(t *testing.T) {
 		if _, err := BuildMap(in, wh[0], wh[1], MapOptions{}); err == nil {
 			t.Errorf("size %v accepted", wh)
 		}
+	}
+}
+
+// TestCurvedAndClosedCorridors: a corridor with a drawn path is drawn along
+// it, and the route that walks it passes through the path's vertex; a
+// closed corridor is drawn (dotted) but no route uses it. Worked by hand: s
+// at (0, 0), a at (100, 0) with the corridor bent through (50, −40), b at
+// (0, 100), the corridor a–b closed.
+func TestCurvedAndClosedCorridors(t *testing.T) {
+	sc := engine.Scenario{
+		Name: "bent", Start: "s",
+		Nodes: []engine.Node{
+			{ID: "s", X: 0, Y: 0, HasXY: true},
+			{ID: "a", X: 100, Y: 0, HasXY: true, Candidate: true},
+			{ID: "b", X: 0, Y: 100, HasXY: true, Candidate: true},
+		},
+		Corridors: []engine.Corridor{
+			{From: "s", To: "a", Length: 130, Path: [][2]float64{{50, -40}}},
+			{From: "s", To: "b", Length: 100},
+			{From: "a", To: "b", Length: 141, Closed: true},
+		},
+	}
+	s, err := engine.NewSite(sc)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, r, err := planners.BestPlan(t.Context(), s, engine.Radio)
+	if err != nil {
+		t.Fatal(err)
+	}
+	mp, err := BuildMap(Input{Site: s, Plan: p, Report: r}, 600, 500, MapOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var buf bytes.Buffer
+	if err := WriteSVG(&buf, &mp.Scene); err != nil {
+		t.Fatal(err)
+	}
+	paths, _ := parseSVG(t, buf.Bytes())
+	o, a := mp.NodePos(0), mp.NodePos(1)
+	z := (a.X - o.X) / 100
+	bend := Pt{X: o.X + 50*z, Y: o.Y - 40*z}
+	sawBend, closed := false, 0
+	for _, pa := range paths {
+		switch pa.Class {
+		case "route":
+			for _, q := range pa.Pts {
+				if math.Hypot(q.X-bend.X, q.Y-bend.Y) < 0.01 {
+					sawBend = true
+				}
+			}
+		case "closed":
+			closed++
+			if len(pa.Pts) != 2 || math.Hypot(pa.Pts[0].X-a.X, pa.Pts[0].Y-a.Y) > 0.01 {
+				t.Errorf("closed corridor drawn as %v", pa.Pts)
+			}
+		}
+	}
+	if !sawBend || closed != 1 {
+		t.Fatalf("route through the bend %v: %v; closed corridors drawn: %d", bend, sawBend, closed)
 	}
 }

@@ -12,6 +12,11 @@ type Scenario struct {
 	Agents    []Agent
 	Nodes     []Node
 	Corridors []Corridor
+	// Backdrop is an image drawn under the site (drawing only), or nil.
+	Backdrop *Backdrop
+	// GeoRef says how drawing coordinates map back to an imported source's
+	// coordinates (drawing only), or nil. See drawing.go.
+	GeoRef *GeoRef
 }
 
 // Node is a junction, dead end or chamber.
@@ -34,6 +39,14 @@ type Node struct {
 type Corridor struct {
 	From, To string
 	Length   float64
+	// Closed marks a corridor that stays on the drawing but is never walked
+	// (barricaded, flooded, or left out to break a loop). The open corridors
+	// must form a tree over all nodes.
+	Closed bool
+	// Path is the corridor's drawn shape: its interior vertices in drawing
+	// coordinates, in order from From to To (the end nodes' own positions are
+	// the two ends). Drawing only: Length is what the model uses.
+	Path [][2]float64
 }
 
 // Agent is one member of the crew. Speed is in unit per second and must be > 0.
@@ -54,6 +67,7 @@ func (sc Scenario) Clone() Scenario {
 	out.Agents = append([]Agent(nil), sc.Agents...)
 	out.Nodes = append([]Node(nil), sc.Nodes...)
 	out.Corridors = append([]Corridor(nil), sc.Corridors...)
+	cloneDrawing(&out)
 	return out
 }
 

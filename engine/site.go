@@ -124,6 +124,9 @@ func NewSite(sc Scenario) (*Site, error) {
 		return nil, fieldErr("start", sc.Start, "no node has this id")
 	}
 	s.Start = start
+	if err := checkDrawing(sc); err != nil {
+		return nil, err
+	}
 
 	if err := s.buildEdges(); err != nil {
 		return nil, err
@@ -219,10 +222,10 @@ func (s *Site) buildEdges() error {
 		if !(c.Length > 0) || math.IsInf(c.Length, 0) {
 			return fieldErr(fmt.Sprintf("corridors[%d].length", i), fmtNum(c.Length), "length must be a finite number > 0")
 		}
-		if !uf.union(u, v) {
-			return fieldErr(fmt.Sprintf("corridors[%d]", i), c.From+"-"+c.To, "closes a cycle: the site must be a tree")
-		}
 		s.EU[i], s.EV[i], s.EW[i] = int32(u), int32(v), c.Length
+		if !c.Closed && !uf.union(u, v) {
+			return s.loopErr(i) // closed corridors may close loops (closed.go)
+		}
 	}
 	return nil
 }
@@ -231,17 +234,24 @@ func (s *Site) buildRooted() error {
 	n := s.N
 	// adjacency in CSR, corridor order
 	deg := make([]int32, n+1)
+	closed := func(i int) bool { return s.Scenario.Corridors[i].Closed } // never walked (closed.go)
 	for i := range s.EU {
+		if closed(i) {
+			continue
+		}
 		deg[s.EU[i]+1]++
 		deg[s.EV[i]+1]++
 	}
 	for i := 1; i <= n; i++ {
 		deg[i] += deg[i-1]
 	}
-	adj := make([]int32, 2*len(s.EU))
-	adjE := make([]int32, 2*len(s.EU))
+	adj := make([]int32, deg[n])
+	adjE := make([]int32, deg[n])
 	fill := append([]int32(nil), deg[:n]...)
 	for i := range s.EU {
+		if closed(i) {
+			continue
+		}
 		u, v := s.EU[i], s.EV[i]
 		adj[fill[u]], adjE[fill[u]] = v, int32(i)
 		fill[u]++
@@ -281,7 +291,7 @@ func (s *Site) buildRooted() error {
 	if len(s.Order) != n {
 		for v := 0; v < n; v++ {
 			if !seen[v] {
-				return fieldErr(fmt.Sprintf("nodes[%d]", v), s.IDs[v], "not connected to the start %q: the site must be one connected tree", s.IDs[s.Start])
+				return s.disconnectedErr(v)
 			}
 		}
 	}
@@ -298,6 +308,9 @@ func (s *Site) buildRooted() error {
 	s.ChildList = make([]int32, n-1+boolInt(n == 0))
 	cf := append([]int32(nil), s.ChildStart[:n]...)
 	for i := range s.EU {
+		if closed(i) {
+			continue
+		}
 		u, v := s.EU[i], s.EV[i]
 		c := v
 		if s.Parent[u] == v {

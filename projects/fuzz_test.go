@@ -22,6 +22,8 @@ func FuzzLoad(f *testing.F) {
 	f.Add(DemoJSON())
 	f.Add([]byte(base))
 	f.Add([]byte(`{"format":"duosweep-scenario","version":1,"start":"a","nodes":[{"id":"a"}]}`))
+	// second-wave drawing fields: closed corridors closing a loop, paths, backdrop, georef
+	f.Add([]byte(`{"format":"duosweep-scenario","version":1,"start":"a","nodes":[{"id":"a"},{"id":"b"},{"id":"c"}],"corridors":[{"from":"a","to":"b","length":1,"path":[[0.5,1]]},{"from":"b","to":"c","length":1},{"from":"c","to":"a","length":2,"closed":true}],"backdrop":{"image":"p.png","scale":0.5},"georef":{"crs":"lonlat","origin":[7,46],"scale":[77000,111000]}}`))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		sc, err := Load(bytes.NewReader(data))
 		if err != nil {

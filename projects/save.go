@@ -25,6 +25,8 @@ type outScenario struct {
 	Agents    []outAgent    `json:"agents"`
 	Nodes     []outNode     `json:"nodes"`
 	Corridors []outCorridor `json:"corridors"`
+	Backdrop  *outBackdrop  `json:"backdrop,omitempty"` // drawing.go
+	GeoRef    *outGeoRef    `json:"georef,omitempty"`   // drawing.go
 }
 
 type outAgent struct {
@@ -42,9 +44,11 @@ type outNode struct {
 }
 
 type outCorridor struct {
-	From   string  `json:"from"`
-	To     string  `json:"to"`
-	Length float64 `json:"length"`
+	From   string       `json:"from"`
+	To     string       `json:"to"`
+	Length float64      `json:"length"`
+	Closed bool         `json:"closed,omitempty"`
+	Path   [][2]float64 `json:"path,omitempty"`
 }
 
 // Save writes sc as an indented scenario file with a stable field order. It
@@ -90,7 +94,7 @@ func checkFinite(sc engine.Scenario) error {
 			return errf("save: corridors[%d].length: %g: not a finite number", i, c.Length)
 		}
 	}
-	return nil
+	return checkDrawingFinite(sc)
 }
 
 func encode(w io.Writer, sc engine.Scenario) error {
@@ -128,8 +132,9 @@ func encode(w io.Writer, sc engine.Scenario) error {
 		out.Nodes[i] = o
 	}
 	for i, c := range sc.Corridors {
-		out.Corridors[i] = outCorridor{From: c.From, To: c.To, Length: c.Length}
+		out.Corridors[i] = outCorridor{From: c.From, To: c.To, Length: c.Length, Closed: c.Closed, Path: c.Path}
 	}
+	out.Backdrop, out.GeoRef = outDrawing(sc)
 	return writeJSON(w, "save", out)
 }
 

@@ -70,6 +70,8 @@ type wireScenario struct {
 	Agents    []wireAgent     `json:"agents"`
 	Nodes     []wireNode      `json:"nodes"`
 	Corridors []wireCorridor  `json:"corridors"`
+	Backdrop  json.RawMessage `json:"backdrop"` // drawing.go
+	GeoRef    json.RawMessage `json:"georef"`   // drawing.go
 }
 
 type wireAgent struct {
@@ -90,6 +92,8 @@ type wireCorridor struct {
 	From   *string         `json:"from"`
 	To     *string         `json:"to"`
 	Length json.RawMessage `json:"length"`
+	Closed json.RawMessage `json:"closed"` // drawing.go
+	Path   json.RawMessage `json:"path"`   // drawing.go
 }
 
 // absent reports whether a raw value is missing or null.
@@ -314,7 +318,13 @@ func (w *wireScenario) scenario() (engine.Scenario, error) {
 		if cr.Length, err = number(f("length"), c.Length); err != nil {
 			return engine.Scenario{}, err
 		}
+		if err := c.drawing(f, &cr); err != nil {
+			return engine.Scenario{}, err
+		}
 		sc.Corridors[i] = cr
+	}
+	if err := w.drawing(&sc); err != nil {
+		return engine.Scenario{}, err
 	}
 	return sc, nil
 }

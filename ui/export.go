@@ -122,10 +122,7 @@ func (a *App) exportAnimation() {
 	}
 	exit := widget.NewSelect(exits, nil)
 	exit.SetSelected(exits[0])
-	other := engine.Radio
-	if in.Report.Model == engine.Radio {
-		other = engine.FaceToFace
-	}
+	other := in.Report.Model.Other()
 	panels := []string{"one panel", "side by side with " + other.String()}
 	side := widget.NewSelect(panels, nil)
 	side.SetSelected(panels[0])

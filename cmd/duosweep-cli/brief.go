@@ -12,6 +12,7 @@ import (
 
 	"duosweep/brief"
 	"duosweep/engine"
+	"duosweep/engine/planners"
 	"duosweep/projects"
 )
 
@@ -191,7 +192,7 @@ func runBrief(e *env, args []string) error {
 			return fmt.Errorf("--exit: %q: not a candidate", o.exit)
 		}
 	}
-	p, r, err := makePlan(e, s, o.planner, m, engine.Options{})
+	p, r, err := makePlan(e, s, o.planner, m, planners.Options{})
 	if err != nil {
 		return err
 	}
