@@ -37,10 +37,11 @@ type exportJob struct {
 
 // briefInput is the current plan as a briefing's input, or an error when there is none.
 func (a *App) briefInput() (brief.Input, error) {
-	if a.site == nil || a.plan == nil || a.report == nil {
+	pl := &a.planning
+	if pl.site == nil || pl.plan == nil || pl.report == nil {
 		return brief.Input{}, errors.New("there is no valid plan to export: fix the site first (see the plan panel)")
 	}
-	return brief.Input{Site: a.site, Plan: a.plan, Report: a.report}, nil
+	return brief.Input{Site: pl.site, Plan: pl.plan, Report: pl.report}, nil
 }
 
 // askPath shows a save dialog suggesting name and calls then with the chosen path.
