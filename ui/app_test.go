@@ -39,7 +39,7 @@ func TestMainWindowBuildsOnDemo(t *testing.T) {
 	if got := a.w.worst.Text; got != fmtTime(r.Worst) {
 		t.Fatalf("worst case label %q, want %q", got, fmtTime(r.Worst))
 	}
-	if !strings.Contains(a.w.worst.Text, projects.FormatDuration(r.Worst)) || !strings.Contains(a.w.worst.Text, " s)") {
+	if !strings.Contains(a.w.worst.Text, engine.FormatClock(r.Worst)) || !strings.Contains(a.w.worst.Text, " s)") {
 		t.Fatalf("worst case label %q lacks mm:ss and seconds", a.w.worst.Text)
 	}
 	if a.busy || a.w.busyBar.Visible() {

@@ -9,7 +9,6 @@ import (
 	"fyne.io/fyne/v2/widget"
 
 	"duosweep/engine"
-	"duosweep/projects"
 )
 
 // comparePanel is the "Radio vs face to face" view: the best available plan under each model, each
@@ -102,7 +101,7 @@ func (a *App) refreshComparison() {
 	radio, f2f := c.cell[0][0].Worst, c.cell[1][1].Worst
 	if d, ok := costText(radio, f2f); ok {
 		w.cmpCost.SetText("Losing radio costs " + d + " on the worst case (" +
-			projects.FormatDuration(radio) + " with radio, " + projects.FormatDuration(f2f) + " face to face).")
+			engine.FormatClock(radio) + " with radio, " + engine.FormatClock(f2f) + " face to face).")
 	} else {
 		w.cmpCost.SetText("No finite worst case to compare.")
 	}

@@ -16,7 +16,6 @@ import (
 	"duosweep/canvas"
 	"duosweep/engine"
 	"duosweep/engine/planners"
-	"duosweep/projects"
 )
 
 // Labels of the models in the model choice, in engine.Models order.
@@ -232,12 +231,7 @@ func (a *App) refreshTable() {
 }
 
 // fmtTime is "mm:ss (123.4 s)".
-func fmtTime(sec float64) string {
-	if math.IsInf(sec, 0) || math.IsNaN(sec) {
-		return projects.FormatDuration(sec)
-	}
-	return fmt.Sprintf("%s (%.1f s)", projects.FormatDuration(sec), sec)
-}
+func fmtTime(sec float64) string { return engine.FormatClockSeconds(sec) }
 
 // heatOverlay is the per-report part of the canvas overlay: evacuation time per candidate, the worst
 // exit and the unvisited candidates.
@@ -288,7 +282,7 @@ func (a *App) refreshLegend() {
 		a.w.legend.Hide()
 		return
 	}
-	a.w.legendHi.SetText(projects.FormatDuration(finiteMax(a.report)))
+	a.w.legendHi.SetText(engine.FormatClock(finiteMax(a.report)))
 	a.w.legend.Show()
 }
 
@@ -398,15 +392,7 @@ func (a *App) sortExits() {
 	})
 }
 
-func (a *App) finderName(f int) string {
-	switch f {
-	case engine.Both:
-		return "both"
-	case engine.Nobody:
-		return "nobody"
-	}
-	return a.site.Names[f]
-}
+func (a *App) finderName(f engine.Finder) string { return f.Name(a.site.Names) }
 
 // exitCell is the text of one table cell.
 func (a *App) exitCell(row, col int) string {
@@ -422,11 +408,11 @@ func (a *App) exitCell(row, col int) string {
 		}
 		return nodeName(a.site, ex.Node) + mark
 	case 1:
-		return projects.FormatDuration(ex.FoundAt)
+		return engine.FormatClock(ex.FoundAt)
 	case 2:
 		return a.finderName(ex.Finder)
 	case 3:
-		return projects.FormatDuration(ex.EvacAt)
+		return engine.FormatClock(ex.EvacAt)
 	}
 	return ""
 }

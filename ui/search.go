@@ -16,7 +16,6 @@ import (
 	"duosweep/engine"
 	"duosweep/engine/planners"
 	"duosweep/engine/search"
-	"duosweep/projects"
 )
 
 // The "search for a better plan" action of the plan panel: it runs the engine's search planners
@@ -258,7 +257,7 @@ func (a *App) showSearchProgress(p planners.Progress) {
 	if math.IsInf(p.Best, 0) || math.IsNaN(p.Best) {
 		sw.best.SetText("no complete plan yet")
 	} else {
-		sw.best.SetText("best so far " + projects.FormatDuration(p.Best))
+		sw.best.SetText("best so far " + engine.FormatClock(p.Best))
 	}
 }
 
@@ -321,7 +320,7 @@ func (a *App) finishSearch(res *searchResult) {
 		name = "exhaustive search"
 	}
 	sw.baseKey.SetText("Best published planner")
-	sw.baseVal.SetText(fmt.Sprintf("%s: %s, gap %s", res.base.Planner, projects.FormatDuration(res.baseR.Worst), gapText(res.baseR)))
+	sw.baseVal.SetText(fmt.Sprintf("%s: %s, gap %s", res.base.Planner, engine.FormatClock(res.baseR.Worst), gapText(res.baseR)))
 	sw.resKey.SetText("Search result")
 	proof := ""
 	if res.planner == "exhaustive" {
@@ -333,11 +332,11 @@ func (a *App) finishSearch(res *searchResult) {
 			proof = ", not proven (stopped)"
 		}
 	}
-	sw.resVal.SetText(fmt.Sprintf("%s: %s, gap %s%s", name, projects.FormatDuration(res.report.Worst), gapText(res.report), proof))
+	sw.resVal.SetText(fmt.Sprintf("%s: %s, gap %s%s", name, engine.FormatClock(res.report.Worst), gapText(res.report), proof))
 	gain := res.baseR.Worst - res.report.Worst
 	better := engine.Better(res.report, res.baseR)
 	switch {
-	case gain > 1e-9*math.Max(1, res.baseR.Worst):
+	case gain > engine.Tol(res.baseR.Worst):
 		sw.verdict.SetText(fmt.Sprintf("%.1f s (%.1f %%) shorter worst case than the published plan.", gain, 100*gain/res.baseR.Worst))
 	case better:
 		sw.verdict.SetText(fmt.Sprintf("Same worst case, %.1f s shorter expected time than the published plan.", res.baseR.Expected-res.report.Expected))

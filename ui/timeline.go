@@ -14,7 +14,6 @@ import (
 
 	"duosweep/canvas"
 	"duosweep/engine"
-	"duosweep/projects"
 )
 
 // PlaySeconds is how long playback of the whole timeline takes at 1×; the speed choice scales it
@@ -113,7 +112,7 @@ func (a *App) timelinePanel() fyne.CanvasObject {
 				return
 			}
 			ev := a.replay.Events[i]
-			o.(*widget.Label).SetText(fmt.Sprintf("%s  %s — %s", projects.FormatDuration(ev.T), ev.Kind, ev.Text))
+			o.(*widget.Label).SetText(fmt.Sprintf("%s  %s — %s", engine.FormatClock(ev.T), ev.Kind, ev.Text))
 		},
 	)
 	w.events.OnSelected = func(i widget.ListItemID) {
@@ -240,9 +239,9 @@ func (a *App) refreshReplayInfo() {
 	case engine.Nobody:
 		how = ": never found"
 	case engine.Both:
-		how = fmt.Sprintf(": found by both at %s", projects.FormatDuration(rp.Result.FoundAt))
+		how = fmt.Sprintf(": found by both at %s", engine.FormatClock(rp.Result.FoundAt))
 	default:
-		how = fmt.Sprintf(": found by %s at %s", a.site.Names[f], projects.FormatDuration(rp.Result.FoundAt))
+		how = fmt.Sprintf(": found by %s at %s", a.site.Names[f], engine.FormatClock(rp.Result.FoundAt))
 	}
 	a.w.replayInfo.SetText(fmt.Sprintf("Exit at %s%s (%s)", nodeName(a.site, rp.Exit), how, which))
 }
@@ -260,7 +259,7 @@ func (a *App) setTime(t float64) {
 		a.syncing = true
 		a.w.slider.Value = t
 		a.w.slider.Refresh()
-		a.w.clock.SetText(projects.FormatDuration(t) + " / " + projects.FormatDuration(a.tMax))
+		a.w.clock.SetText(engine.FormatClock(t) + " / " + engine.FormatClock(a.tMax))
 		a.syncEvents()
 		a.syncing = false
 	}
@@ -287,7 +286,7 @@ func (a *App) currentEvent() int {
 	return sort.Search(len(evs), func(i int) bool { return evs[i].T > a.t+tolT(a.t) }) - 1
 }
 
-func tolT(t float64) float64 { return 1e-9 * math.Max(1, math.Abs(t)) }
+func tolT(t float64) float64 { return engine.Tol(t) }
 
 // agentsAt returns the agent marks of the current replay at time t.
 func (a *App) agentsAt(t float64) []canvas.AgentMark {

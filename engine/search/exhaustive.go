@@ -59,6 +59,7 @@ package search
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"math"
 	"sort"
@@ -98,7 +99,7 @@ func ClassName(m engine.Model) string {
 }
 
 // ErrSiteTooLarge is returned (wrapped) when a site exceeds the exhaustive planner's limits.
-var ErrSiteTooLarge = fmt.Errorf("engine: exhaustive: site too large")
+var ErrSiteTooLarge = errors.New("engine: exhaustive: site too large")
 
 // ExhaustiveResult is what the exhaustive search reports besides the plan.
 type ExhaustiveResult struct {
@@ -108,26 +109,31 @@ type ExhaustiveResult struct {
 	Incumbent string // the planner whose plan won ("exhaustive" when the search found it)
 }
 
+// Agent status in the exhaustive search.
 const (
-	agActive = iota
-	agWaiting
-	agStopped
+	agActive  = iota // choosing legs
+	agWaiting        // waiting at a rendezvous node for its partner
+	agStopped        // parked for good
 )
 
+// exAgent is one agent's committed route in the exhaustive search.
 type exAgent struct {
-	tr     *engine.Trajectory
-	wps    []engine.Waypoint
-	pos    int     // node at the end of the committed route
-	T      float64 // time at the end of the committed route
-	status int
-	from   int   // origin of the last leg
-	rv     int   // rendezvous node while waiting
-	ver    int64 // changes whenever the committed route or status changes
+	tr     *engine.Trajectory // the committed route, grown leg by leg
+	wps    []engine.Waypoint  // its waypoints (the plan's route)
+	pos    int                // node at the end of the committed route
+	T      float64            // time at the end of the committed route
+	status int                // agActive, agWaiting or agStopped
+	from   int                // origin of the last leg
+	rv     int                // rendezvous node while waiting
+	ver    int64              // changes whenever the committed route or status changes
 }
 
+// exSnap is what restore needs to undo an agent's step: the lengths of its
+// trajectory's segment, rendezvous and waypoint lists, and its exAgent
+// fields (same names) before the step.
 type exSnap struct {
-	nseg, nrv, nwp int
-	length, end    float64
+	nseg, nrv, nwp int     // len of tr.Segs, tr.RVTime (and RVAt, RVSegs), wps
+	length, end    float64 // tr.Length, tr.End
 	pos            int
 	T              float64
 	status, from   int
@@ -135,29 +141,38 @@ type exSnap struct {
 	ver            int64
 }
 
+// exKey is the memo key of a decision state: two states with equal keys
+// have the same futures, so the one reached later with a worse settled
+// maximum is dominated (see exPair).
 type exKey struct {
-	vis     uint32
-	m       int8
-	pm      int16
-	ost     int8
-	oq, opo int16
-	rel     uint64
-	meet    uint8 // 1 when a rendezvous may be called (face to face: progress since the last one)
-	pend    [4]exPend
+	vis  uint32    // bit mask of the candidates visited by the decision time
+	m    int8      // the agent that decides (0 or 1)
+	pm   int16     // the node the deciding agent stands on
+	ost  int8      // the other agent's status (agActive, agWaiting, agStopped)
+	oq   int16     // the other agent's leg origin (its node once the leg is done)
+	opo  int16     // the other agent's leg end node
+	rel  uint64    // bits of the time the other agent still needs to end its leg (≥ 0)
+	meet uint8     // 1 when a rendezvous may be called (face to face: progress since the last one)
+	pend [4]exPend // found candidates whose evacuation time is still open (equal speeds only)
 }
 
 // exPend is a found candidate whose evacuation time is not settled: its
 // index, finder and how long before the decision it was found.
 type exPend struct {
-	c, f int8
-	rel  uint64
+	c   int8   // candidate index
+	f   int8   // finder (agent index)
+	rel uint64 // bits of the decision time minus the time it was found
 }
 
+// exPair is one memo entry of a key: a state reached at decision time T
+// with settled maximum evacuation M. A later state with T' ≥ T and
+// M' ≥ M is dominated.
 type exPair struct{ T, M float64 }
 
+// fvUndo records one first-visit time change, to undo on backtracking.
 type fvUndo struct {
-	a, v int
-	old  float64
+	a, v int     // agent and node
+	old  float64 // the first-visit time before the change
 }
 
 type exSearch struct {

@@ -60,15 +60,19 @@ import (
 // Options.Budget nor Options.Iterations is set.
 const DefaultImproveBudget = 5 * time.Second
 
+// imItem is one step of an agent's item list: go to P (then wait, meet or
+// mark a rendezvous).
 type imItem struct {
-	P    engine.Point
-	Wait float64 // extra wait after arriving (not for meetings)
-	Meet bool    // a meeting: the place is the rendezvous node of its ordinal
-	RV   bool    // a rendezvous mark without a paired meeting (kept from the start plan)
+	P    engine.Point // where the step goes
+	Wait float64      // extra wait after arriving (not for meetings)
+	Meet bool         // a meeting: the place is the rendezvous node of its ordinal
+	RV   bool         // a rendezvous mark without a paired meeting (kept from the start plan)
 }
 
+// imState is a candidate plan of the improve search: each agent's item
+// list, and the rendezvous places that Meet items refer to.
 type imState struct {
-	list [2][]imItem
+	list [2][]imItem    // per agent, in walking order
 	meet []engine.Point // rendezvous places, by ordinal
 }
 
@@ -610,7 +614,7 @@ func (im *improver) mutate(st *imState, r *engine.Report) *imState {
 		}
 		x := r.WorstExit
 		ex, _ := r.ExitFor(x)
-		f := ex.Finder
+		f := int(ex.Finder)
 		if f != 0 && f != 1 {
 			f = rng.IntN(2)
 		}
