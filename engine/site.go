@@ -43,9 +43,12 @@ type Site struct {
 	Prob      []float64 // probabilities (0 where absent)
 	HasProb   bool      // some node has a probability: expected times are reported
 
-	// Edges, by corridor index. EW is the effort-weighted length w·e that
-	// every distance, bound, planner and time uses (MODEL.md §9); RealLen is
-	// the corridor's length as given and Effort its factor (1 by default).
+	// Corridors, by corridor index e: end nodes EU[e] ("u", the From end
+	// as given) and EV[e] ("v", the To end), and length EW[e] ("weight"),
+	// the effort-weighted length w·e that every distance, bound, planner and
+	// time uses (MODEL.md §9); RealLen[e] is the corridor's length as given
+	// and Effort[e] its factor (1 by default). Offsets along corridor e are
+	// measured from EU[e] (effort-weighted, like every engine length).
 	EU, EV  []int32
 	EW      []float64
 	RealLen []float64

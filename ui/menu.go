@@ -142,6 +142,9 @@ func (a *App) mainMenu() *fyne.MainMenu {
 		item("Save as…", ctrlShift(fyne.KeyS), func() { a.saveAs(nil) }),
 		fyne.NewMenuItemSeparator(),
 		item("Print itinerary…", ctrl(fyne.KeyP), a.printItinerary),
+		fyne.NewMenuItem("Export briefing…", a.exportBriefing),
+		fyne.NewMenuItem("Export picture…", a.exportPicture),
+		fyne.NewMenuItem("Export animation…", a.exportAnimation),
 		fyne.NewMenuItemSeparator(),
 		quit,
 	)

@@ -7,7 +7,6 @@ import (
 	"math"
 
 	"duosweep/engine"
-	"duosweep/projects"
 )
 
 func init() {
@@ -51,7 +50,7 @@ func runBounds(e *env, args []string) error {
 	if b.Finish {
 		printFinishBounds(w, s, b, speed)
 	} else {
-		fmt.Fprintf(w, "LB:                  %.2f s (%s) = max(LB1 / v, LB2 / v, LB3), v = %g %s/s the faster speed\n", b.LB, projects.FormatDuration(b.LB), speed, u)
+		fmt.Fprintf(w, "LB:                  %.2f s (%s) = max(LB1 / v, LB2 / v, LB3), v = %g %s/s the faster speed\n", b.LB, engine.FormatClock(b.LB), speed, u)
 	}
 	fmt.Fprintf(w, "farthest candidate:  %s\n", nodeLabel(s, b.Far))
 	return nil
@@ -76,7 +75,7 @@ func printFinishBounds(w io.Writer, s *engine.Site, b engine.Bounds, speed float
 		how = fmt.Sprintf("more than %d candidates: max(LB2 / v + min o, max d(s, x) / v + o(x))", engine.LB2PairCap)
 	}
 	fmt.Fprintf(w, "LB2 with carry:      %.2f s = max over pairs y, z of min((d(s,y) + d(y,z)) / v + o(z), (d(s,z) + d(z,y)) / v + o(y)) (%s)\n", b.LB2T, how)
-	fmt.Fprintf(w, "LB:                  %.2f s (%s) = max(LB1 with carry, LB2 with carry, LB3) for the crew out at the finish, v = %g %s/s the faster speed\n", b.LB, projects.FormatDuration(b.LB), speed, u)
+	fmt.Fprintf(w, "LB:                  %.2f s (%s) = max(LB1 with carry, LB2 with carry, LB3) for the crew out at the finish, v = %g %s/s the faster speed\n", b.LB, engine.FormatClock(b.LB), speed, u)
 }
 
 func carryNote(b engine.Bounds) string {
