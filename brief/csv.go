@@ -48,8 +48,8 @@ func WriteCSV(w io.Writer, in Input) error {
 		t := 0.0
 		for i, wp := range p.Routes[a].Waypoints {
 			q := s.Canon(wp.P)
-			d := s.PointDist(cur, q)
-			arrive := t + d/s.Speed[a]
+			arrive := t + s.PointDist(cur, q)/s.Speed[a]
+			d := s.RealPointDist(cur, q) // the real length walked (MODEL.md §9)
 			leave := tr.WpTime[i]
 			action := "walk"
 			switch {
@@ -70,7 +70,7 @@ func WriteCSV(w io.Writer, in Input) error {
 			if wp.P.To < 0 {
 				rw[5] = s.IDs[wp.P.From]
 			} else {
-				rw[6], rw[7], rw[8] = s.IDs[wp.P.From], s.IDs[wp.P.To], strconv.FormatFloat(wp.P.Offset, 'f', -1, 64)
+				rw[6], rw[7], rw[8] = s.IDs[wp.P.From], s.IDs[wp.P.To], strconv.FormatFloat(s.RealOffset(wp.P), 'f', -1, 64) // a real length, as in reports
 			}
 			rw[9], rw[10] = action, sec(arrive)
 			if err := cw.Write(rw); err != nil {

@@ -29,7 +29,7 @@ func SitePositions(s *engine.Site) []Pt {
 	edges := make([]geom.Edge, 0, len(s.EU))
 	for e := range s.EU {
 		if !sc.Corridors[e].Closed {
-			edges = append(edges, geom.Edge{A: int(s.EU[e]), B: int(s.EV[e]), Len: s.EW[e]})
+			edges = append(edges, geom.Edge{A: int(s.EU[e]), B: int(s.EV[e]), Len: s.RealLen[e]}) // drawn at real length
 		}
 	}
 	tidy := geom.Tidy(s.N, edges, s.Start)
@@ -100,7 +100,7 @@ func (pr *projection) node(v int) Pt { return pr.pos[v] }
 
 // point returns the drawing position of a site point: a node, or a point
 // inside a corridor at the same fraction of the corridor's drawn length as
-// of its real length.
+// of its length (engine offsets and EW are both effort-weighted).
 func (pr *projection) point(p engine.Point) Pt {
 	if p.To < 0 {
 		return pr.pos[p.From]

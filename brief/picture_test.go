@@ -102,7 +102,7 @@ func TestSVGRoutes(t *testing.T) {
 			var w float64
 			for _, c := range s.Scenario.Corridors {
 				if (c.From == s.IDs[p.From] && c.To == s.IDs[p.To]) || (c.To == s.IDs[p.From] && c.From == s.IDs[p.To]) {
-					w = c.Length
+					w = c.Length * c.EffortFactor() // engine offsets are effort-weighted
 				}
 			}
 			f := p.Offset / w
