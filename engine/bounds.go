@@ -30,7 +30,7 @@ type Bounds struct {
 // LB2PairCap is the largest number of candidates on which the finish-aware
 // pairwise bound LB2T is computed exactly by scanning every pair (O(k² log n));
 // above it LB2T is a fallback that is still a valid bound (bounds.go).
-const LB2PairCap = 600
+const LB2PairCap = 300
 
 // ComputeBounds returns the lower bounds of s. W, L, L2, LB1 and LB2 take
 // O(n); LB3 takes O(n·K²) with K = 64 the cap on its frontiers, and is left

@@ -387,3 +387,33 @@ func TestReplayCarryLeg(t *testing.T) {
 		}
 	}
 }
+
+// BenchmarkBoundsFinishCap is ComputeBounds (with NewSite) on a 1,200-node
+// random site with LB2PairCap candidates, with and without a finish:
+// the difference is the exact pair scan of LB2 with carry.
+func BenchmarkBoundsFinishCap(b *testing.B) {
+	sc := testtrees.Random(testtrees.NewRand(7), testtrees.Options{MinNodes: 1200, MaxNodes: 1200, NoProbabilities: true})
+	k := 0
+	for i := range sc.Nodes {
+		sc.Nodes[i].Candidate = sc.Nodes[i].ID != sc.Start && k < engine.LB2PairCap
+		if sc.Nodes[i].Candidate {
+			k++
+		}
+	}
+	fin := sc.Clone()
+	fin.Finish = &engine.Finish{Node: sc.Start}
+	for _, c := range []struct {
+		name string
+		sc   engine.Scenario
+	}{{"no-finish", sc}, {"finish", fin}} {
+		b.Run(c.name, func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				s, err := engine.NewSite(c.sc)
+				if err != nil {
+					b.Fatal(err)
+				}
+				engine.ComputeBounds(s)
+			}
+		})
+	}
+}

@@ -68,7 +68,11 @@ func WriteItinerary(w io.Writer, s *engine.Site, p *engine.Plan, r *engine.Repor
 	} else {
 		pf("Worst case:     no candidates\n")
 	}
-	pf("Lower bound:    %s (LB1 = W = %.1f %s, LB2 = L + 2·L2 = %.1f %s%s)\n", formatSeconds(r.Bounds.LB), r.Bounds.LB1, s.Unit(), r.Bounds.LB2, s.Unit(), lb3Text(r.Bounds.LB3))
+	if b := r.Bounds; b.Finish {
+		pf("Lower bound:    %s for the crew out (W/v + nearest carry = %s, pairwise with carry = %s%s)\n", formatSeconds(b.LB), FormatDuration(b.LB1T), FormatDuration(b.LB2T), lb3Text(b.LB3))
+	} else {
+		pf("Lower bound:    %s (LB1 = W = %.1f %s, LB2 = L + 2·L2 = %.1f %s%s)\n", formatSeconds(b.LB), b.LB1, s.Unit(), b.LB2, s.Unit(), lb3Text(b.LB3))
+	}
 	if math.IsInf(r.Gap, 0) || math.IsNaN(r.Gap) {
 		pf("Certified gap:  none (the plan is incomplete)\n")
 	} else {
