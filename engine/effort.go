@@ -57,6 +57,10 @@ func cloneEffort(out *Scenario) {
 	}
 	if out.Finish != nil {
 		f := *out.Finish
+		if f.Speed != nil {
+			v := *f.Speed
+			f.Speed = &v
+		}
 		out.Finish = &f
 	}
 }

@@ -59,6 +59,12 @@ func TestEffortValidation(t *testing.T) {
 	if *sc.Corridors[0].Effort != 2 {
 		t.Error("Clone shares the effort pointer")
 	}
+	sc.Finish = &engine.Finish{Node: "s", Speed: engine.EffortValue(0.5)}
+	cl = sc.Clone()
+	cl.Finish.Node, *cl.Finish.Speed = "l0", 2
+	if sc.Finish.Node != "s" || *sc.Finish.Speed != 0.5 {
+		t.Error("Clone shares the finish")
+	}
 }
 
 func TestFinishValidation(t *testing.T) {
