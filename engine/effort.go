@@ -21,7 +21,7 @@ import (
 // taken for a typing error (FORMATS.md: "absurd values, say above 100").
 const MaxEffort = 100
 
-// EffortValue returns a pointer to e, for setting Corridor.Effort.
+// EffortValue returns a pointer to e, for setting Corridor.Effort (or Finish.Speed).
 func EffortValue(e float64) *float64 { return &e }
 
 // EffortFactor returns the corridor's effort factor: 1 when none is given.
