@@ -67,7 +67,7 @@ func WriteGeoJSON(w io.Writer, s *engine.Site, plan *engine.Plan, rep *engine.Re
 		}
 		fc.Append(f)
 	}
-	meta := map[string]any{"format": ExportFormat, "version": 1, "name": sc.Name, "unit": s.Unit(),
+	meta := map[string]any{"format": ExportFormat, "version": 1, "name": sc.Name, "unit": s.Unit(), "crs": g.CRS,
 		"agents": []map[string]any{{"name": s.Names[0], "speed": s.Speed[0]}, {"name": s.Names[1], "speed": s.Speed[1]}}}
 	if plan != nil {
 		trs, err := s.Trajectories(plan)
@@ -176,7 +176,11 @@ func routeLine(s *engine.Site, xy [][2]float64, tr *engine.Trajectory) (orb.Line
 	var ls orb.LineString
 	var ts []float64
 	add := func(p [2]float64, t float64) {
-		if n := len(ls); n > 0 && ls[n-1] == orb.Point(p) && ts[n-1] == t {
+		n := len(ls)
+		if n > 0 && t < ts[n-1] {
+			t = ts[n-1] // rounding of the interpolation: times never go down
+		}
+		if n > 0 && ls[n-1] == orb.Point(p) && ts[n-1] == t {
 			return
 		}
 		ls = append(ls, orb.Point(p))

@@ -36,6 +36,7 @@ type wireFeature struct {
 type wireMeta struct {
 	Name   string `json:"name"`
 	Unit   string `json:"unit"`
+	CRS    string `json:"crs"` // "planar" reads the file as with Options.Planar
 	Agents []struct {
 		Name  string  `json:"name"`
 		Speed float64 `json:"speed"`
@@ -112,6 +113,10 @@ func ReadGeoJSON(data []byte, opt Options) (*Result, error) {
 			return nil, errAt("duosweep", "not an object {\"name\", \"unit\", \"agents\"}: %v", err)
 		}
 		net.name, net.unit = m.Name, m.Unit
+		if m.CRS == engine.GeoRefPlanar && !opt.Planar {
+			opt.Planar = true
+			net.msgs = append(net.msgs, "coordinates: the file says they are plane coordinates (duosweep.crs)")
+		}
 		for _, a := range m.Agents {
 			net.agents = append(net.agents, engine.Agent{Name: a.Name, Speed: a.Speed})
 		}
