@@ -235,23 +235,35 @@ func checkPositions(raw []byte) error {
 		return nil // orb reports unknown types and missing coordinates
 	}
 	c := bytes.TrimSpace(wg.Coordinates)
-	depth, count := 0, 0
-	for i, b := range c {
-		switch b {
-		case '[':
+	depth, count, inString := 0, 0, false
+	for i := 0; i < len(c); i++ {
+		b := c[i]
+		if inString {
+			if b == '\\' {
+				i++
+			} else if b == '"' {
+				inString = false
+			}
+			continue
+		}
+		switch {
+		case b == '"':
+			inString = true
+			if depth == want {
+				count++
+			}
+		case b == '[':
 			depth++
 			if depth == want {
 				count = 0
 			}
-		case ']':
+		case b == ']':
 			if depth == want && count < 2 {
 				return fmt.Errorf("a position has %d number%s; a position needs 2 (longitude, latitude or x, y)", count, plural(count))
 			}
 			depth--
-		default:
-			if depth == want && (b == '-' || b >= '0' && b <= '9') && (i == 0 || c[i-1] == '[' || c[i-1] == ',' || c[i-1] == ' ' || c[i-1] == '\n' || c[i-1] == '\t' || c[i-1] == '\r') {
-				count++
-			}
+		case depth == want && b != ',' && b != ' ' && b != '\n' && b != '\t' && b != '\r' && (i == 0 || c[i-1] == '[' || c[i-1] == ',' || c[i-1] == ' ' || c[i-1] == '\n' || c[i-1] == '\t' || c[i-1] == '\r'):
+			count++ // the first byte of a value
 		}
 	}
 	return nil
