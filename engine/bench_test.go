@@ -16,6 +16,7 @@ import (
 	"testing"
 
 	"duosweep/engine"
+	"duosweep/engine/planners"
 	"duosweep/projects"
 )
 
@@ -146,7 +147,7 @@ func BenchmarkComputeBounds(b *testing.B) {
 // supports, on a fresh site per iteration (built with the timer stopped, so
 // that nothing cached on the site from an earlier iteration is reused).
 func BenchmarkPlanner(b *testing.B) {
-	for _, info := range engine.Planners() {
+	for _, info := range planners.Planners() {
 		if info.Search {
 			continue
 		}
@@ -158,7 +159,7 @@ func BenchmarkPlanner(b *testing.B) {
 					sc := benchTree(n)
 					b.ResetTimer()
 					for i := 0; i < b.N; i++ {
-						if _, err := engine.MakePlan(context.Background(), freshSite(b, sc), info.Name, m, engine.Options{}); err != nil {
+						if _, err := planners.MakePlan(context.Background(), freshSite(b, sc), info.Name, m, planners.Options{}); err != nil {
 							b.Fatal(err)
 						}
 					}
@@ -177,7 +178,7 @@ func benchBestPlan(b *testing.B, s *engine.Site, m engine.Model, n int) *engine.
 	b.Helper()
 	var bestP *engine.Plan
 	var bestR *engine.Report
-	for _, info := range engine.PlannersFor(m) {
+	for _, info := range planners.PlannersFor(m) {
 		if info.Search {
 			continue
 		}
@@ -185,7 +186,7 @@ func benchBestPlan(b *testing.B, s *engine.Site, m engine.Model, n int) *engine.
 			b.Logf("best plan at n=%d leaves out %s (%.1f s per plan at n=%d)", n, info.Name, last.ns/1e9, last.n)
 			continue
 		}
-		p, err := engine.MakePlan(context.Background(), s, info.Name, m, engine.Options{})
+		p, err := planners.MakePlan(context.Background(), s, info.Name, m, planners.Options{})
 		if err != nil {
 			b.Fatal(err)
 		}
@@ -228,7 +229,7 @@ func BenchmarkEvaluate(b *testing.B) {
 // BenchmarkLoadAndValidate in the same run.
 func BenchmarkPlanAndEvaluateBoth(b *testing.B) {
 	for _, n := range benchSizes {
-		for _, info := range engine.Planners() {
+		for _, info := range planners.Planners() {
 			if info.Search {
 				continue
 			}
@@ -238,7 +239,7 @@ func BenchmarkPlanAndEvaluateBoth(b *testing.B) {
 				b.ResetTimer()
 				for i := 0; i < b.N; i++ {
 					s := freshSite(b, benchTree(n))
-					p, err := engine.MakePlan(context.Background(), s, info.Name, info.Models[0], engine.Options{})
+					p, err := planners.MakePlan(context.Background(), s, info.Name, info.Models[0], planners.Options{})
 					if err != nil {
 						b.Fatal(err)
 					}
@@ -256,7 +257,7 @@ func BenchmarkPlanAndEvaluateBoth(b *testing.B) {
 			for i := 0; i < b.N; i++ {
 				s := freshSite(b, benchTree(n))
 				for _, m := range engine.Models {
-					p, _, err := engine.BestPlan(context.Background(), s, m)
+					p, _, err := planners.BestPlan(context.Background(), s, m)
 					if err != nil {
 						b.Fatal(err)
 					}

@@ -14,6 +14,7 @@ import (
 
 	"duosweep/engine"
 	"duosweep/engine/internal/testtrees"
+	"duosweep/engine/planners"
 )
 
 func fieldError(t *testing.T, err error) *engine.FieldError {
@@ -87,11 +88,11 @@ func TestClosedCorridorsChangeNothing(t *testing.T) {
 			}
 		}
 		for _, m := range engine.Models {
-			_, r1, err := engine.BestPlan(context.Background(), s1, m)
+			_, r1, err := planners.BestPlan(context.Background(), s1, m)
 			if err != nil {
 				t.Fatal(err)
 			}
-			_, r2, err := engine.BestPlan(context.Background(), s2, m)
+			_, r2, err := planners.BestPlan(context.Background(), s2, m)
 			if err != nil {
 				t.Fatal(err)
 			}

@@ -146,9 +146,9 @@ func (s *Site) CheckPoint(p Point) error {
 	return nil
 }
 
-// ends returns the two corridor ends of p with their distances from p (for a
+// Ends returns the two corridor ends of p with their distances from p (for a
 // node, the node twice at distance 0).
-func (s *Site) ends(p Point) (u int, du float64, v int, dv float64) {
+func (s *Site) Ends(p Point) (u int, du float64, v int, dv float64) {
 	if p.To < 0 {
 		return p.From, 0, p.From, 0
 	}
@@ -170,8 +170,8 @@ func (s *Site) PointDist(a, b Point) float64 {
 			return math.Abs(a.Offset - (w - b.Offset))
 		}
 	}
-	au, adu, av, adv := s.ends(a)
-	bu, bdu, bv, bdv := s.ends(b)
+	au, adu, av, adv := s.Ends(a)
+	bu, bdu, bv, bdv := s.Ends(b)
 	d := adu + bdu + s.Dist(au, bu)
 	if av != au {
 		d = math.Min(d, adv+bdu+s.Dist(av, bu))
@@ -190,7 +190,7 @@ func (s *Site) NodeDist(a Point, v int) float64 {
 	if a.To < 0 {
 		return s.Dist(a.From, v)
 	}
-	au, adu, av, adv := s.ends(a)
+	au, adu, av, adv := s.Ends(a)
 	d := adu + s.Dist(au, v)
 	if av != au {
 		d = math.Min(d, adv+s.Dist(av, v))

@@ -1,44 +1,9 @@
 package engine
 
 import (
-	"fmt"
 	"math"
 	"sort"
 )
-
-// Model is a communication model (MODEL.md §3 and §4).
-type Model int
-
-const (
-	// Radio is global communication: the partner learns of the exit at once.
-	Radio Model = iota
-	// FaceToFace is local communication: agents share what they know only when they meet.
-	FaceToFace
-)
-
-// Models lists both models in display order.
-var Models = []Model{Radio, FaceToFace}
-
-func (m Model) String() string {
-	switch m {
-	case Radio:
-		return "radio"
-	case FaceToFace:
-		return "face-to-face"
-	}
-	return fmt.Sprintf("Model(%d)", int(m))
-}
-
-// ParseModel parses "radio" or "face-to-face".
-func ParseModel(s string) (Model, error) {
-	switch s {
-	case "radio":
-		return Radio, nil
-	case "face-to-face":
-		return FaceToFace, nil
-	}
-	return 0, fmt.Errorf("engine: model: %q: want radio or face-to-face", s)
-}
 
 // Both is the Finder value when both agents reach the exit at the same first moment.
 const Both = 2
@@ -124,6 +89,7 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 	// is found by one forward sweep over its segments; face to face,
 	// consecutive discoveries tend to meet the partner at nearby moments, so
 	// each intercept search starts from the previous answer.
+	comm := m.comm()
 	for f := 0; f < 2; f++ {
 		partner, sf, sp := trs[1-f], s.Speed[f], s.Speed[1-f]
 		hint := 0
@@ -136,13 +102,10 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 			if ex.Finder != f {
 				continue
 			}
-			if m == Radio {
-				var pos Point
-				pos, hint = partner.positionFrom(ex.FoundAt, hint)
-				ex.EvacAt = ex.FoundAt + s.NodeDist(pos, ex.Node)/sp
-				ex.MeetAt = ex.FoundAt
-			} else {
-				ex.MeetAt, ex.MeetPoint, ex.EvacAt = intercept(s, partner, ex.Node, ex.FoundAt, sf, sp, &hint)
+			tl := comm.tell(s, partner, ex.Node, ex.FoundAt, sf, sp, &hint)
+			ex.MeetAt, ex.EvacAt = tl.at, tl.evac
+			if tl.met {
+				ex.MeetPoint = tl.where
 			}
 		}
 	}
@@ -165,21 +128,28 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 	return r
 }
 
-// exitFull is exitResult with the evacuation time worked out.
-func exitFull(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) ExitResult {
+// ExitFull is the evaluation of one exit x under m: exitResult with the
+// evacuation time worked out. fv holds each agent's first-visit times.
+// Searches that grow trajectories leg by leg use it to settle one exit.
+func ExitFull(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) ExitResult {
+	ex, _ := exitTelling(s, trs, fv, x, m)
+	return ex
+}
+
+// exitTelling is ExitFull that also says how the partner was told (the
+// zero telling for a tie or an unvisited exit).
+func exitTelling(s *Site, trs [2]*Trajectory, fv [2][]float64, x int, m Model) (ExitResult, telling) {
 	ex := exitResult(fv, x)
 	if ex.Finder != 0 && ex.Finder != 1 {
-		return ex
+		return ex, telling{}
 	}
-	f, t := ex.Finder, ex.FoundAt
-	hint := 0
-	if m == Radio {
-		pos := trs[1-f].PositionAt(t)
-		ex.EvacAt, ex.MeetAt = t+s.NodeDist(pos, x)/s.Speed[1-f], t
-	} else {
-		ex.MeetAt, ex.MeetPoint, ex.EvacAt = intercept(s, trs[1-f], x, t, s.Speed[f], s.Speed[1-f], &hint)
+	f := ex.Finder
+	tl := m.comm().tell(s, trs[1-f], x, ex.FoundAt, s.Speed[f], s.Speed[1-f], nil)
+	ex.MeetAt, ex.EvacAt = tl.at, tl.evac
+	if tl.met {
+		ex.MeetPoint = tl.where
 	}
-	return ex
+	return ex, tl
 }
 
 // exitResult finds t(x) and the finder; for a single finder the evacuation
@@ -192,7 +162,7 @@ func exitResult(fv [2][]float64, x int) ExitResult {
 	case math.IsInf(t, 1):
 		ex.Finder = Nobody
 		return ex
-	case math.Abs(t0-t1) <= tol(t):
+	case math.Abs(t0-t1) <= Tol(t):
 		ex.Finder = Both
 		ex.EvacAt, ex.MeetAt = t, t
 		return ex
@@ -202,97 +172,6 @@ func exitResult(fv [2][]float64, x int) ExitResult {
 		ex.Finder = 1
 	}
 	return ex
-}
-
-// intercept solves MODEL.md §4 for a finder at node x at time t with speed sf
-// and an uninformed partner on trajectory tr with speed sp: the meeting time
-// τ, the meeting point and the evacuation time min τ + d(π(τ),x)/min(sf,sp)
-// over τ ≥ t with d(x, π(τ)) ≤ sf·(τ − t).
-//
-// hint is the segment index where the previous search ended; it only steers
-// the search (an exponential search around it), never the result.
-func intercept(s *Site, tr *Trajectory, x int, t, sf, sp float64, hint *int) (float64, Point, float64) {
-	slow := math.Min(sf, sp)
-	// the partner's trajectory for this exit: segments up to the first
-	// rendezvous at or after t, then stationary there.
-	nseg := len(tr.Segs)
-	final := tr.FinalPoint()
-	tailFrom := tr.End
-	if k := sort.SearchFloat64s(tr.RVTime, t-tol(t)); k < len(tr.RVTime) {
-		nseg = tr.RVSegs[k]
-		final = tr.RVAt[k]
-		tailFrom = tr.RVTime[k]
-	}
-	segs := tr.Segs[:nseg]
-	// first segment that ends at or after t
-	i0 := sort.Search(len(segs), func(i int) bool { return segs[i].T1 >= t })
-
-	bestT, bestP, bestE := math.Inf(1), Point{}, math.Inf(1)
-	consider := func(tau float64, p Point, d float64) {
-		e := tau + d/slow
-		if e < bestE-1e-12 {
-			bestT, bestP, bestE = tau, p, e
-		}
-	}
-	// the stationary tail
-	{
-		dEnd := s.NodeDist(final, x)
-		tau := math.Max(math.Max(tailFrom, t), t+dEnd/sf)
-		consider(tau, final, dEnd)
-	}
-	// segment g restricted to [max(t,T0), T1]: D linear in τ.
-	trySeg := func(g *Seg) {
-		a := math.Max(t, g.T0)
-		b := g.T1
-		if b < a {
-			return
-		}
-		pa, pb := s.segPoint(g, a), s.segPoint(g, b)
-		da, db := s.NodeDist(pa, x), s.NodeDist(pb, x)
-		// feasibility h(τ) = sf(τ−t) − D(τ), linear between a and b
-		ha, hb := sf*(a-t)-da, sf*(b-t)-db
-		ok := func(h, tau float64) bool { return h >= -1e-9*math.Max(1, tau) }
-		if ok(ha, a) {
-			consider(a, pa, da)
-		}
-		if ok(hb, b) {
-			consider(b, pb, db)
-		}
-		if (ha < 0) != (hb < 0) && b > a {
-			// the boundary crossing
-			z := a + (b-a)*(-ha)/(hb-ha)
-			pz := s.segPoint(g, z)
-			consider(z, pz, s.NodeDist(pz, x))
-		}
-	}
-	if sp <= sf {
-		// feasibility never decreases and the objective never decreases on
-		// the feasible part: the earliest feasible τ is optimal. Binary search
-		// the first segment whose end is feasible.
-		feasible := func(i int) bool {
-			g := &segs[i]
-			var d float64
-			if g.N1 >= 0 {
-				d = s.Dist(int(g.N1), x)
-			} else {
-				d = s.NodeDist(s.segPoint(g, g.T1), x)
-			}
-			return sf*(g.T1-t)-d >= -1e-9*math.Max(1, g.T1)
-		}
-		j := firstTrue(i0, len(segs), *hint, feasible)
-		if j < len(segs) {
-			trySeg(&segs[j])
-			*hint = j
-		}
-	} else {
-		for i := i0; i < len(segs); i++ {
-			if math.Max(t, segs[i].T0) >= bestE {
-				break // τ ≥ evac already reached: no later meeting helps
-			}
-			trySeg(&segs[i])
-		}
-	}
-	return bestT, bestP, bestE
 }
 
 // firstTrue returns the first index in [lo, hi) where the monotone predicate
@@ -339,4 +218,16 @@ func firstTrue(lo, hi, hint int, pred func(int) bool) int {
 		}
 	}
 	return b
+}
+
+// Better reports whether report a beats b: smaller worst case, then smaller
+// expected time. Planner names break remaining ties through the caller's order.
+func Better(a, b *Report) bool {
+	if d := a.Worst - b.Worst; math.Abs(d) > Tol(b.Worst) {
+		return d < 0
+	}
+	if a.HasExpected && b.HasExpected && math.Abs(a.Expected-b.Expected) > Tol(b.Expected) {
+		return a.Expected < b.Expected
+	}
+	return false
 }

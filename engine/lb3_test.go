@@ -1,13 +1,14 @@
-package engine
+package engine_test
 
 import (
-	"context"
 	"fmt"
 	"math"
 	"testing"
-	"time"
 
 	"github.com/stretchr/testify/require"
+
+	"duosweep/engine"
+	"duosweep/engine/internal/fixtures"
 )
 
 // bruteLB3 computes LB3 from its definition (docs/lower-bound.md) by plain
@@ -17,7 +18,7 @@ import (
 // max((2|S_0| − D_x)/v_0, (2|S_1| − D_x)/v_1); LB3 is the least of these.
 // Independent of lb3.go's frontier programme (it shares only the site's
 // parent links and depths).
-func bruteLB3(s *Site) float64 {
+func bruteLB3(s *engine.Site) float64 {
 	cand := s.Candidates()
 	in := make([][2]bool, s.N)
 	mark := func(a, v int) {
@@ -56,24 +57,19 @@ func bruteLB3(s *Site) float64 {
 	return best
 }
 
-func lb12(s *Site) float64 {
-	b := ComputeBounds(s)
-	return math.Max(b.LB1, b.LB2) / math.Max(s.Speed[0], s.Speed[1])
-}
-
 // The frontier programme equals plain enumeration of the definition on 400
 // random trees with up to 11 candidates (integer and real lengths, random
 // starts, some with unequal speeds), up to its cap of 1.25·max(LB1, LB2).
 func TestLB3MatchesEnumeration(t *testing.T) {
 	above := 0
 	for i := 0; i < 400; i++ {
-		s := mustSite(t, searchTree(uint64(9100+i), 2+i%12))
-		b := ComputeBounds(s)
-		want := math.Min(bruteLB3(s), lb3Above*lb12(s)*math.Max(s.Speed[0], s.Speed[1])/math.Min(s.Speed[0], s.Speed[1]))
+		s := fixtures.MustSite(t, fixtures.SearchTree(uint64(9100+i), 2+i%12))
+		b := engine.ComputeBounds(s)
+		want := math.Min(bruteLB3(s), engine.LB3Above*fixtures.LB12(s)*math.Max(s.Speed[0], s.Speed[1])/math.Min(s.Speed[0], s.Speed[1]))
 		require.InDelta(t, want, b.LB3, 1e-9*math.Max(1, want), "tree %d", i)
 		require.GreaterOrEqual(t, b.LB3, b.W/math.Max(s.Speed[0], s.Speed[1])*(1-1e-12), "tree %d: LB3 below W/v", i)
-		require.Equal(t, math.Max(lb12(s), b.LB3), b.LB)
-		if b.LB3 > lb12(s)*(1+1e-9) {
+		require.Equal(t, math.Max(fixtures.LB12(s), b.LB3), b.LB)
+		if b.LB3 > fixtures.LB12(s)*(1+1e-9) {
 			above++
 		}
 	}
@@ -86,7 +82,7 @@ func TestLB3MatchesEnumeration(t *testing.T) {
 // equal halves (x = the long leaf, each agent takes one half) and more than
 // W when they do not (every split leaves one agent |Σ_F − Σ_G| ≥ 1 more).
 func TestLB3PartitionStars(t *testing.T) {
-	r := newTestRand(78)
+	r := fixtures.NewRand(78)
 	yes, no := 0, 0
 	for yes < 20 || no < 20 {
 		n := 3 + r.IntN(5)
@@ -98,13 +94,13 @@ func TestLB3PartitionStars(t *testing.T) {
 			sum += a[i]
 			legs = append(legs, float64(a[i]))
 		}
-		part := subsetHalf(a)
+		part := fixtures.SubsetHalf(a)
 		if part && yes >= 20 || !part && no >= 20 {
 			continue
 		}
 		M := float64(sum + 1 + r.IntN(5))
-		s := mustSite(t, star(append(legs, M)...))
-		b := ComputeBounds(s)
+		s := fixtures.MustSite(t, fixtures.Star(append(legs, M)...))
+		b := engine.ComputeBounds(s)
 		if part {
 			yes++
 			require.InDelta(t, b.W, b.LB, 1e-9, "%v M=%g: a partition exists", a, M)
@@ -117,60 +113,28 @@ func TestLB3PartitionStars(t *testing.T) {
 	}
 }
 
-// LB3 never exceeds what exhaustive search achieves (120 small trees, both
-// models; TestSearchPlannersOnSmallTrees checks exhaustive ≥ LB on 300
-// more): the class optimum is a real plan, so it must be ≥ every valid lower
-// bound. The share of proven-optimal runs (worst = LB) is logged.
-func TestLB3BelowExhaustive(t *testing.T) {
-	trees := 120
-	if testing.Short() {
-		trees = 40
-	}
-	tight, tightOld, total := 0, 0, 0
-	for i := 0; i < trees; i++ {
-		s := mustSite(t, searchTree(uint64(9600+i), 3+i%8))
-		b := ComputeBounds(s)
-		for _, m := range Models {
-			p, res, err := Exhaustive(context.Background(), s, m, Options{Budget: time.Minute, Seed: 1})
-			require.NoError(t, err)
-			require.True(t, res.Proven)
-			w := worstOf(t, s, p, m)
-			require.GreaterOrEqual(t, w, b.LB3*(1-1e-9), "tree %d %s", i, m)
-			total++
-			if w <= b.LB*(1+1e-9) {
-				tight++
-			}
-			if w <= lb12(s)*(1+1e-9) {
-				tightOld++
-			}
-		}
-	}
-	t.Logf("exhaustive's class optimum equals the lower bound on %d of %d runs with LB3, %d with max(LB1, LB2) alone", tight, total, tightOld)
-	require.Greater(t, tight, tightOld)
-}
-
 // Past its caps LB3 is left out (0) and LB is max(LB1, LB2)/v: a star with
-// more leaves than lb3MaxNodes, and a random tree that needs more work than
+// more leaves than engine.LB3MaxNodes, and a random tree that needs more work than
 // lb3Work.
 func TestLB3Caps(t *testing.T) {
-	legs := make([]float64, lb3MaxNodes+1)
+	legs := make([]float64, engine.LB3MaxNodes+1)
 	for i := range legs {
 		legs[i] = float64(1 + i%7)
 	}
-	s := mustSite(t, star(legs...))
-	b := ComputeBounds(s)
+	s := fixtures.MustSite(t, fixtures.Star(legs...))
+	b := engine.ComputeBounds(s)
 	require.Zero(t, b.LB3)
-	require.Equal(t, lb12(s), b.LB)
+	require.Equal(t, fixtures.LB12(s), b.LB)
 	over := 0
 	for i := 0; i < 20; i++ {
-		sc := searchTree(uint64(9900+i), 150)
+		sc := fixtures.SearchTree(uint64(9900+i), 150)
 		for k := range sc.Nodes {
 			sc.Nodes[k].Candidate = sc.Nodes[k].ID != sc.Start
 		}
-		s := mustSite(t, sc)
-		if ComputeBounds(s).LB3 == 0 {
+		s := fixtures.MustSite(t, sc)
+		if engine.ComputeBounds(s).LB3 == 0 {
 			over++
-			require.Equal(t, lb12(s), ComputeBounds(s).LB)
+			require.Equal(t, fixtures.LB12(s), engine.ComputeBounds(s).LB)
 		}
 	}
 	require.Positive(t, over, "no 150-node tree reached the work cap")
@@ -182,17 +146,17 @@ func TestLB3Caps(t *testing.T) {
 func BenchmarkLB3(b *testing.B) {
 	for _, n := range []int{20, 60, 100, 300} {
 		b.Run(fmt.Sprintf("n%d", n), func(b *testing.B) {
-			sc := searchTree(1, n)
+			sc := fixtures.SearchTree(1, n)
 			for k := range sc.Nodes {
 				sc.Nodes[k].Candidate = sc.Nodes[k].ID != sc.Start
 			}
 			computed := 0
 			for b.Loop() {
 				b.StopTimer()
-				s := mustSite(b, sc)
-				u := lb12(s) // (this computes LB3 once too, untimed)
+				s := fixtures.MustSite(b, sc)
+				u := fixtures.LB12(s) // (this computes LB3 once too, untimed)
 				b.StartTimer()
-				if lb3(s, u) > 0 {
+				if engine.LB3(s, u) > 0 {
 					computed++
 				}
 			}

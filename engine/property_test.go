@@ -18,6 +18,7 @@ import (
 
 	"duosweep/engine"
 	"duosweep/engine/internal/testtrees"
+	"duosweep/engine/planners"
 )
 
 // refBounds computes W, L and LB2 the reference's own way: W is the total
@@ -194,7 +195,7 @@ func TestProperties(t *testing.T) {
 			// a search planner starts from (or includes) the published plans:
 			// it is never worse than the best available plan
 			if searchPlanner(pp.name) {
-				_, best, err := engine.BestPlan(context.Background(), s, pp.model)
+				_, best, err := planners.BestPlan(context.Background(), s, pp.model)
 				if err != nil {
 					t.Fatal(err)
 				}
@@ -241,7 +242,7 @@ func TestProperties(t *testing.T) {
 }
 
 func searchPlanner(name string) bool {
-	for _, p := range engine.Planners() {
+	for _, p := range planners.Planners() {
 		if p.Name == name {
 			return p.Search
 		}
@@ -252,8 +253,8 @@ func searchPlanner(name string) bool {
 // TestGuaranteedPlannersRegistered fails once every planner of MODEL.md §6
 // should exist; until then it reports which ones are missing.
 func TestGuaranteedPlannersRegistered(t *testing.T) {
-	have := map[string]engine.PlannerInfo{}
-	for _, p := range engine.Planners() {
+	have := map[string]planners.PlannerInfo{}
+	for _, p := range planners.Planners() {
 		have[p.Name] = p
 	}
 	var missing []string
@@ -281,7 +282,7 @@ func TestBestPlanIsBest(t *testing.T) {
 			t.Fatal(err)
 		}
 		for _, m := range engine.Models {
-			p, rep, err := engine.BestPlan(context.Background(), s, m)
+			p, rep, err := planners.BestPlan(context.Background(), s, m)
 			if err != nil {
 				t.Fatalf("tree %d: BestPlan %s: %v", i, m, err)
 			}
@@ -289,11 +290,11 @@ func TestBestPlanIsBest(t *testing.T) {
 			if err != nil || !close9(again.Worst, rep.Worst) {
 				t.Errorf("tree %d: BestPlan report worst %v, re-evaluated %v (%v)", i, rep.Worst, again.Worst, err)
 			}
-			for _, info := range engine.PlannersFor(m) {
+			for _, info := range planners.PlannersFor(m) {
 				if info.Search {
 					continue
 				}
-				q, err := engine.MakePlan(context.Background(), s, info.Name, m, engine.Options{})
+				q, err := planners.MakePlan(context.Background(), s, info.Name, m, planners.Options{})
 				if err != nil {
 					t.Fatal(err)
 				}
@@ -314,8 +315,8 @@ func TestBestPlanIsBest(t *testing.T) {
 // exhaustive search must find W there; without an equal split no plan at
 // all reaches W.
 func TestExhaustivePartition(t *testing.T) {
-	var info engine.PlannerInfo
-	for _, p := range engine.Planners() {
+	var info planners.PlannerInfo
+	for _, p := range planners.Planners() {
 		if p.Name == "exhaustive" {
 			info = p
 		}
@@ -339,7 +340,7 @@ func TestExhaustivePartition(t *testing.T) {
 		s := mustSite(t, testtrees.Partition(c.a, c.M))
 		W := engine.ComputeBounds(s).W
 		for _, m := range info.Models {
-			p, err := engine.MakePlan(context.Background(), s, "exhaustive", m, engine.Options{Budget: 20 * time.Second})
+			p, err := planners.MakePlan(context.Background(), s, "exhaustive", m, planners.Options{Budget: 20 * time.Second})
 			if err != nil {
 				t.Fatalf("%v/%v %s: %v", c.a, c.M, m, err)
 			}
@@ -366,13 +367,13 @@ func TestPlannersDeterministic(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		for _, info := range engine.Planners() {
+		for _, info := range planners.Planners() {
 			if info.Search {
 				continue
 			}
 			for _, m := range info.Models {
-				p1, err1 := engine.MakePlan(context.Background(), s, info.Name, m, engine.Options{})
-				p2, err2 := engine.MakePlan(context.Background(), s, info.Name, m, engine.Options{})
+				p1, err1 := planners.MakePlan(context.Background(), s, info.Name, m, planners.Options{})
+				p2, err2 := planners.MakePlan(context.Background(), s, info.Name, m, planners.Options{})
 				if err1 != nil || err2 != nil {
 					t.Fatalf("tree %d %s: %v %v", i, info.Name, err1, err2)
 				}

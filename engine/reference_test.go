@@ -21,6 +21,7 @@ import (
 
 	"duosweep/engine"
 	"duosweep/engine/internal/testtrees"
+	"duosweep/engine/planners"
 )
 
 type refArc struct{ to, e int }
@@ -652,8 +653,8 @@ type plannedPlan struct {
 func plannerPlans(t *testing.T, i int, s *engine.Site) []plannedPlan {
 	t.Helper()
 	var out []plannedPlan
-	for _, info := range engine.Planners() {
-		opt := engine.Options{Seed: int64(i)}
+	for _, info := range planners.Planners() {
+		opt := planners.Options{Seed: int64(i)}
 		if info.Search {
 			if s.N > 9 || i%10 != 0 {
 				continue
@@ -661,7 +662,7 @@ func plannerPlans(t *testing.T, i int, s *engine.Site) []plannedPlan {
 			opt.Budget, opt.Iterations = 20*time.Millisecond, 150
 		}
 		for _, m := range info.Models {
-			p, err := engine.MakePlan(context.Background(), s, info.Name, m, opt)
+			p, err := planners.MakePlan(context.Background(), s, info.Name, m, opt)
 			if err != nil {
 				t.Errorf("tree %d: planner %s (%s): %v", i, info.Name, m, err)
 				continue

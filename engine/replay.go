@@ -70,7 +70,7 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 		return nil, err
 	}
 	fv := [2][]float64{trs[0].FirstVisits(), trs[1].FirstVisits()}
-	ex := exitFull(s, trs, fv, exit, m)
+	ex, tl := exitTelling(s, trs, fv, exit, m)
 	rp := &Replay{Exit: exit, Model: m, Result: ex, End: ex.EvacAt}
 	if ex.Finder == Nobody {
 		rp.full = trs
@@ -106,7 +106,8 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 	rp.learn[f] = t
 	rp.Events = append(rp.Events, Event{T: t, Kind: EventFound, Agent: f, At: x,
 		Text: fmt.Sprintf("%s finds the exit at %s", name(f), s.Label(exit))})
-	if m == Radio {
+	if !tl.met {
+		// told at a distance, the moment the exit is found
 		rp.full[f] = mk(prefixRoute(trs[f], p.Routes[f], t, -1, x, t), f)
 		pos := trs[q].PositionAt(t)
 		d := s.NodeDist(pos, exit)
@@ -126,7 +127,7 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 		rp.full[f] = mk(rf, f)
 		// the partner's uninformed route up to τ, cut at the first rendezvous at or after t
 		rvLimit := -1
-		if k := sort.SearchFloat64s(trs[q].RVTime, t-tol(t)); k < len(trs[q].RVTime) {
+		if k := sort.SearchFloat64s(trs[q].RVTime, t-Tol(t)); k < len(trs[q].RVTime) {
 			rvLimit = trs[q].RVWp[k]
 		}
 		rq := prefixRoute(trs[q], p.Routes[q], tau, rvLimit, meet, tau)

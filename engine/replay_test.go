@@ -1,4 +1,4 @@
-package engine
+package engine_test
 
 import (
 	"context"
@@ -6,6 +6,11 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/require"
+
+	"duosweep/engine"
+	"duosweep/engine/internal/fixtures"
+	"duosweep/engine/internal/plantest"
+	"duosweep/engine/published"
 )
 
 // TestReplayAgreesWithEvaluate checks, on random trees, every planner and
@@ -14,11 +19,11 @@ import (
 // routes, and that the informed trajectories never need more than full speed
 // (Site.Trajectory refuses those).
 func TestReplayAgreesWithEvaluate(t *testing.T) {
-	forEachPublishedPlan(t, 150, 21, func(seed uint64, s *Site, info PlannerInfo, m Model, p *Plan, r *Report) {
+	plantest.ForEachPublishedPlan(t, 150, 21, func(seed uint64, s *engine.Site, info published.Planner, m engine.Model, p *engine.Plan, r *engine.Report) {
 		trs, err := s.Trajectories(p)
 		require.NoError(t, err)
 		for _, ex := range r.Exits {
-			rp, err := NewReplay(s, p, m, ex.Node)
+			rp, err := engine.NewReplay(s, p, m, ex.Node)
 			require.NoError(t, err, "seed %d %s %s exit %d", seed, info.Name, m, ex.Node)
 			require.InDelta(t, ex.EvacAt, rp.End, 1e-9*math.Max(1, ex.EvacAt))
 			for a := 0; a < 2; a++ {
@@ -30,19 +35,19 @@ func TestReplayAgreesWithEvaluate(t *testing.T) {
 				require.Equal(t, rp.Informed(a, rp.End), true)
 			}
 			require.NotEmpty(t, rp.Events)
-			require.Equal(t, EventFound, rp.Events[0].Kind)
+			require.Equal(t, engine.EventFound, rp.Events[0].Kind)
 			require.InDelta(t, ex.EvacAt, rp.Events[len(rp.Events)-1].T, 1e-9*math.Max(1, ex.EvacAt))
 		}
 	})
 }
 
 func TestReplayRefusesNonCandidate(t *testing.T) {
-	s, err := NewSite(star(1, 2))
+	s, err := engine.NewSite(fixtures.Star(1, 2))
 	require.NoError(t, err)
-	p, err := MakePlan(context.Background(), s, "together", Radio, Options{})
+	p, err := published.MakePlan(context.Background(), s, "together", engine.Radio)
 	require.NoError(t, err)
-	_, err = NewReplay(s, p, Radio, s.Start)
+	_, err = engine.NewReplay(s, p, engine.Radio, s.Start)
 	require.ErrorContains(t, err, "not a candidate")
-	_, err = NewReplay(s, p, Radio, 99)
+	_, err = engine.NewReplay(s, p, engine.Radio, 99)
 	require.Error(t, err)
 }

@@ -1,6 +1,7 @@
 package engine
 
 import (
+	"fmt"
 	"math"
 	"sort"
 )
@@ -19,6 +20,20 @@ const (
 	// OrderLightFirst visits the child with the least corridor length below it first.
 	OrderLightFirst
 )
+
+func (o ChildOrder) String() string {
+	switch o {
+	case OrderIndex:
+		return "corridor order"
+	case OrderDeepLast:
+		return "farthest branch last"
+	case OrderDeepFirst:
+		return "farthest branch first"
+	case OrderLightFirst:
+		return "lightest branch first"
+	}
+	return fmt.Sprintf("ChildOrder(%d)", int(o))
+}
 
 // AllOrders lists every child order.
 var AllOrders = []ChildOrder{OrderIndex, OrderDeepLast, OrderDeepFirst, OrderLightFirst}
@@ -116,7 +131,8 @@ func (w *Walk) Len() float64 {
 	return w.Arc[len(w.Arc)-1]
 }
 
-func (w *Walk) push(s *Site, v int) {
+// Push appends node v, which must be adjacent to the walk's last node.
+func (w *Walk) Push(s *Site, v int) {
 	if len(w.Nodes) == 0 {
 		w.Nodes, w.Arc = append(w.Nodes, v), append(w.Arc, 0)
 		return
@@ -126,16 +142,16 @@ func (w *Walk) push(s *Site, v int) {
 	w.Arc = append(w.Arc, w.Arc[len(w.Arc)-1]+s.EW[s.Edge(u, v)])
 }
 
-// appendTour appends the closed depth-first tour of the search subtree below
+// AppendTour appends the closed depth-first tour of the search subtree below
 // v (v itself is assumed to be the walk's current end) in child order o,
 // skipping children of v for which skip returns true.
-func (s *Site) appendTour(w *Walk, v int, o ChildOrder, skip func(int) bool) {
-	s.appendTourWith(w, v, func(u int) []int { return s.SearchChildren(u, o) }, skip)
+func (s *Site) AppendTour(w *Walk, v int, o ChildOrder, skip func(int) bool) {
+	s.AppendTourWith(w, v, func(u int) []int { return s.SearchChildren(u, o) }, skip)
 }
 
-// appendTourWith is appendTour with the children of each node, in tour
+// AppendTourWith is AppendTour with the children of each node, in tour
 // order, given by children. Iterative: safe for deep trees.
-func (s *Site) appendTourWith(w *Walk, v int, children func(int) []int, skip func(int) bool) {
+func (s *Site) AppendTourWith(w *Walk, v int, children func(int) []int, skip func(int) bool) {
 	type frame struct {
 		v    int
 		kids []int
@@ -147,7 +163,7 @@ func (s *Site) appendTourWith(w *Walk, v int, children func(int) []int, skip fun
 		if f.i == len(f.kids) {
 			stack = stack[:len(stack)-1]
 			if len(stack) > 0 {
-				w.push(s, stack[len(stack)-1].v)
+				w.Push(s, stack[len(stack)-1].v)
 			}
 			continue
 		}
@@ -156,7 +172,7 @@ func (s *Site) appendTourWith(w *Walk, v int, children func(int) []int, skip fun
 		if len(stack) == 1 && skip != nil && skip(c) {
 			continue
 		}
-		w.push(s, c)
+		w.Push(s, c)
 		stack = append(stack, frame{v: c, kids: children(c)})
 	}
 }
@@ -165,8 +181,8 @@ func (s *Site) appendTourWith(w *Walk, v int, children func(int) []int, skip fun
 // in child order o. Its length is 2W. O(n log n).
 func (s *Site) Tour(o ChildOrder) *Walk {
 	w := &Walk{}
-	w.push(s, s.Start)
-	s.appendTour(w, s.Start, o, nil)
+	w.Push(s, s.Start)
+	s.AppendTour(w, s.Start, o, nil)
 	return w
 }
 
@@ -187,8 +203,9 @@ func (w *Walk) PointAt(s *Site, a float64) (Point, int) {
 	return s.Canon(Point{From: u, To: v, Offset: a - w.Arc[i-1]}), i - 1
 }
 
-// routeBuilder builds a route of one agent with tight waypoint times.
-type routeBuilder struct {
+// RouteBuilder builds a route of one agent with tight waypoint times: each
+// waypoint is timed at the agent's arrival at full speed. The planners share it.
+type RouteBuilder struct {
 	s     *Site
 	speed float64
 	cur   Point
@@ -196,12 +213,13 @@ type routeBuilder struct {
 	wps   []Waypoint
 }
 
-func newRoute(s *Site, agent int) *routeBuilder {
-	return &routeBuilder{s: s, speed: s.Speed[agent], cur: At(s.Start)}
+// NewRoute starts a route of agent at the site's start at time 0.
+func NewRoute(s *Site, agent int) *RouteBuilder {
+	return &RouteBuilder{s: s, speed: s.Speed[agent], cur: At(s.Start)}
 }
 
-// to walks to p at full speed.
-func (b *routeBuilder) to(p Point) {
+// To walks to p at full speed.
+func (b *RouteBuilder) To(p Point) {
 	p = b.s.Canon(p)
 	if p == b.cur && len(b.wps) > 0 {
 		return
@@ -211,46 +229,61 @@ func (b *routeBuilder) to(p Point) {
 	b.wps = append(b.wps, Waypoint{P: p, T: b.t})
 }
 
-// toNodes walks along nodes (each adjacent to the previous or reachable by a tree path).
-func (b *routeBuilder) toNodes(nodes []int) {
+// ToNodes walks along nodes (each adjacent to the previous or reachable by a tree path).
+func (b *RouteBuilder) ToNodes(nodes []int) {
 	for _, v := range nodes {
 		if b.cur.IsNode() && b.cur.From == v {
 			continue
 		}
-		b.to(At(v))
+		b.To(At(v))
 	}
 }
 
-// waitUntil waits at the current place until t.
-func (b *routeBuilder) waitUntil(t float64) {
+// WaitUntil waits at the current place until t.
+func (b *RouteBuilder) WaitUntil(t float64) {
 	if t > b.t {
 		b.t = t
 		b.wps = append(b.wps, Waypoint{P: b.cur, T: t})
 	}
 }
 
-// rendezvous marks the last waypoint (adding one at the current place if needed).
-func (b *routeBuilder) rendezvous() {
+// Rendezvous marks the last waypoint (adding one at the current place if needed).
+func (b *RouteBuilder) Rendezvous() {
 	if len(b.wps) == 0 {
 		b.wps = append(b.wps, Waypoint{P: b.cur, T: b.t})
 	}
 	b.wps[len(b.wps)-1].Rendezvous = true
 }
 
-func (b *routeBuilder) route() Route { return Route{Waypoints: b.wps} }
+// Route returns the route built so far (it shares the builder's waypoints).
+func (b *RouteBuilder) Route() Route { return Route{Waypoints: b.wps} }
 
-// walkPrefix walks the walk from its start up to arclength a (a point, maybe inside a corridor).
-func (b *routeBuilder) walkPrefix(s *Site, w *Walk, a float64) {
+// WalkPrefix walks the walk from its start up to arclength a (a point, maybe inside a corridor).
+func (b *RouteBuilder) WalkPrefix(s *Site, w *Walk, a float64) {
 	p, i := w.PointAt(s, a)
-	b.toNodes(w.Nodes[:i+1])
-	b.to(p)
+	b.ToNodes(w.Nodes[:i+1])
+	b.To(p)
 }
 
-// walkSuffixReversed walks the walk backwards from its end down to arclength a.
-func (b *routeBuilder) walkSuffixReversed(s *Site, w *Walk, a float64) {
+// WalkSuffixReversed walks the walk backwards from its end down to arclength a.
+func (b *RouteBuilder) WalkSuffixReversed(s *Site, w *Walk, a float64) {
 	p, i := w.PointAt(s, a)
 	for k := len(w.Nodes) - 1; k > i; k-- {
-		b.toNodes([]int{w.Nodes[k]})
+		b.ToNodes([]int{w.Nodes[k]})
 	}
-	b.to(p)
+	b.To(p)
 }
+
+// Clone returns an independent copy of the builder.
+func (b *RouteBuilder) Clone() *RouteBuilder {
+	c := *b
+	c.wps = append([]Waypoint(nil), b.wps...)
+	return &c
+}
+
+// Site returns the site the builder walks on.
+func (b *RouteBuilder) Site() *Site { return b.s }
+
+// Time returns the time at which the builder's agent stands at the end of
+// the route built so far.
+func (b *RouteBuilder) Time() float64 { return b.t }

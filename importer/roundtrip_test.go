@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"duosweep/engine"
+	"duosweep/engine/published"
 )
 
 func importBytes(t *testing.T, data []byte, opt Options) *Result {
@@ -24,7 +25,7 @@ func export(t *testing.T, s *engine.Site, withPlan bool) []byte {
 	var rep *engine.Report
 	if withPlan {
 		var err error
-		if plan, rep, err = engine.BestPlan(context.Background(), s, engine.Radio); err != nil {
+		if plan, rep, err = published.BestPlan(context.Background(), s, engine.Radio); err != nil {
 			t.Fatal(err)
 		}
 	}
@@ -153,7 +154,7 @@ func TestRoundTripPlanar(t *testing.T) {
 // trajectory's.
 func TestExportRoutes(t *testing.T) {
 	r := importBytes(t, readFile(t, samplePath), DefaultOptions())
-	plan, _, err := engine.BestPlan(context.Background(), r.Site, engine.FaceToFace)
+	plan, _, err := published.BestPlan(context.Background(), r.Site, engine.FaceToFace)
 	if err != nil {
 		t.Fatal(err)
 	}

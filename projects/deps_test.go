@@ -21,6 +21,16 @@ func TestNoFyneInEngineOrProjects(t *testing.T) {
 	if len(pkgs) < 5 {
 		t.Fatalf("go list returned too little: %q", pkgs)
 	}
+	// every room of the engine is covered
+	for _, want := range []string{"duosweep/engine", "duosweep/engine/published", "duosweep/engine/search", "duosweep/engine/planners", "duosweep/engine/gen"} {
+		found := false
+		for _, p := range pkgs {
+			found = found || p == want
+		}
+		if !found {
+			t.Errorf("go list -deps does not list %s", want)
+		}
+	}
 	for _, p := range pkgs {
 		if strings.HasPrefix(p, "fyne.io/") {
 			t.Errorf("engine or projects depends on %s", p)

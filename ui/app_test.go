@@ -12,6 +12,7 @@ import (
 
 	"duosweep/canvas"
 	"duosweep/engine"
+	"duosweep/engine/planners"
 	"duosweep/projects"
 )
 
@@ -187,7 +188,7 @@ func TestModelSwitchChangesResults(t *testing.T) {
 	}
 	// a named planner
 	name := ""
-	for _, info := range engine.PlannersFor(engine.FaceToFace) {
+	for _, info := range planners.PlannersFor(engine.FaceToFace) {
 		if !info.Search {
 			name = info.Name
 			break
@@ -199,7 +200,7 @@ func TestModelSwitchChangesResults(t *testing.T) {
 	a.w.planner.SetSelected(name)
 	h.wait()
 	s, _ := engine.NewSite(projects.Demo())
-	p, err := engine.MakePlan(t.Context(), s, name, engine.FaceToFace, engine.Options{})
+	p, err := planners.MakePlan(t.Context(), s, name, engine.FaceToFace, planners.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -511,7 +512,7 @@ func TestPlannerRefusalIsShownAndComparisonStillWorks(t *testing.T) {
 	a := h.app
 	// the exhaustive search planner (engine issue 4) refuses sites with more candidates than it can prove
 	search := ""
-	for _, p := range engine.PlannersFor(engine.Radio) {
+	for _, p := range planners.PlannersFor(engine.Radio) {
 		if p.Search && p.Name == "exhaustive" {
 			search = p.Name
 		}
@@ -520,7 +521,7 @@ func TestPlannerRefusalIsShownAndComparisonStillWorks(t *testing.T) {
 		t.Skip("the exhaustive planner is not registered yet")
 	}
 	s, _ := engine.NewSite(a.editor.Scenario())
-	_, want := engine.MakePlan(t.Context(), s, search, engine.Radio, engine.Options{})
+	_, want := planners.MakePlan(t.Context(), s, search, engine.Radio, planners.Options{})
 	a.w.planner.SetSelected(search + " (search)")
 	h.wait()
 	if want != nil {

@@ -12,6 +12,7 @@ import (
 	"fyne.io/fyne/v2/widget"
 
 	"duosweep/engine"
+	"duosweep/engine/planners"
 )
 
 // uiQueue stands in for fyne.Do in tests: background work queues functions, and waitIdle runs them on
@@ -114,7 +115,7 @@ func engineBest(t testing.TB, sc engine.Scenario, m engine.Model) (*engine.Site,
 	if err != nil {
 		t.Fatal(err)
 	}
-	p, r, err := engine.BestPlan(t.Context(), s, m)
+	p, r, err := planners.BestPlan(t.Context(), s, m)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -13,6 +13,7 @@ import (
 	"fyne.io/fyne/v2/widget"
 
 	"duosweep/canvas"
+	"duosweep/engine"
 	"duosweep/icons"
 )
 
@@ -153,8 +154,8 @@ func (a *App) mainMenu() *fyne.MainMenu {
 		fyne.NewMenuItem("Tidy layout", a.editor.Tidy),
 	)
 	plan := fyne.NewMenu("Plan",
-		fyne.NewMenuItem("Radio", func() { a.setModel(0) }),
-		fyne.NewMenuItem("Face to face", func() { a.setModel(1) }),
+		fyne.NewMenuItem(engine.Radio.Label(), func() { a.setModel(engine.Radio) }),
+		fyne.NewMenuItem(engine.FaceToFace.Label(), func() { a.setModel(engine.FaceToFace) }),
 		fyne.NewMenuItemSeparator(),
 		fyne.NewMenuItem("Radio vs face to face", func() { a.w.tabs.SelectIndex(1) }),
 		item("Play / pause", ctrl(fyne.KeySpace), a.togglePlay),

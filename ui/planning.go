@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"duosweep/engine"
+	"duosweep/engine/planners"
 )
 
 // planResult is what one background planning run produces.
@@ -35,9 +36,9 @@ func computePlan(ctx context.Context, sc engine.Scenario, m engine.Model, planne
 	var p *engine.Plan
 	var r *engine.Report
 	if planner == "" {
-		p, r, err = engine.BestPlan(ctx, site, m)
+		p, r, err = planners.BestPlan(ctx, site, m)
 	} else {
-		p, err = engine.MakePlan(ctx, site, planner, m, engine.Options{})
+		p, err = planners.MakePlan(ctx, site, planner, m, planners.Options{})
 		if err == nil {
 			r, err = engine.Evaluate(site, p, m)
 		}
@@ -58,7 +59,7 @@ func computeComparison(ctx context.Context, site *engine.Site, have *engine.Plan
 		p := have
 		if p == nil || p.Model != m {
 			var err error
-			if p, _, err = engine.BestPlan(ctx, site, m); err != nil {
+			if p, _, err = planners.BestPlan(ctx, site, m); err != nil {
 				c.err = err
 				return c
 			}

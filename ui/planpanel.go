@@ -15,11 +15,18 @@ import (
 
 	"duosweep/canvas"
 	"duosweep/engine"
+	"duosweep/engine/planners"
 	"duosweep/projects"
 )
 
-// Labels of the two models in the model choice, in engine.Models order.
-var modelLabels = []string{"Radio", "Face to face"}
+// Labels of the models in the model choice, in engine.Models order.
+var modelLabels = func() []string {
+	out := make([]string, len(engine.Models))
+	for i, m := range engine.Models {
+		out[i] = m.Label()
+	}
+	return out
+}()
 
 const bestAvailable = "Best available"
 
@@ -28,15 +35,15 @@ const bestAvailable = "Best available"
 func (a *App) planPanel() fyne.CanvasObject {
 	w := &a.w
 	w.model = widget.NewRadioGroup(modelLabels, func(s string) {
-		for i, l := range modelLabels {
-			if l == s {
-				a.setModel(engine.Models[i])
+		for _, m := range engine.Models {
+			if m.Label() == s {
+				a.setModel(m)
 			}
 		}
 	})
 	w.model.Horizontal = true
 	w.model.Required = true
-	w.model.SetSelected(modelLabels[0])
+	w.model.SetSelected(engine.Models[0].Label())
 
 	w.planner = widget.NewSelect(nil, func(s string) {
 		name := ""
@@ -116,7 +123,7 @@ func (a *App) planPanel() fyne.CanvasObject {
 func (a *App) fillPlannerChoices() {
 	opts := []string{bestAvailable}
 	sel := bestAvailable
-	for _, p := range engine.PlannersFor(a.model) {
+	for _, p := range planners.PlannersFor(a.model) {
 		label := p.Name
 		if p.Search {
 			label += " (search)"
@@ -139,7 +146,7 @@ func (a *App) setModel(m engine.Model) {
 		return
 	}
 	a.model = m
-	a.w.model.SetSelected(modelLabels[m])
+	a.w.model.SetSelected(m.Label())
 	a.fillPlannerChoices()
 	a.replan()
 }

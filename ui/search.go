@@ -14,6 +14,8 @@ import (
 	"fyne.io/fyne/v2/widget"
 
 	"duosweep/engine"
+	"duosweep/engine/planners"
+	"duosweep/engine/search"
 	"duosweep/projects"
 )
 
@@ -154,7 +156,7 @@ func (a *App) refreshSearch() {
 	setEnabled(sw.run, ok)
 	proveOK := ok
 	if a.site != nil && a.planErr == nil {
-		if err := engine.CheckExhaustiveSize(a.site); err != nil {
+		if err := search.CheckExhaustiveSize(a.site); err != nil {
 			proveOK = false
 			nc, ns := 0, 0
 			for v := 0; v < a.site.N; v++ {
@@ -166,7 +168,7 @@ func (a *App) refreshSearch() {
 				}
 			}
 			sw.proveHint.SetText(fmt.Sprintf("Proving the best plan of its class is offered on sites of at most %d candidates and %d junctions in the searched part; this site has %d and %d.",
-				engine.ExhaustiveMaxCandidates, engine.ExhaustiveMaxNodes, nc, ns))
+				search.ExhaustiveMaxCandidates, search.ExhaustiveMaxNodes, nc, ns))
 			sw.proveHint.Show()
 		} else {
 			sw.proveHint.Hide()
@@ -224,17 +226,17 @@ func (a *App) startSearch(planner string) {
 		t0 := time.Now()
 		res := &searchResult{planner: planner, site: site, model: m, base: base, baseR: baseR}
 		if res.base == nil {
-			res.base, res.baseR, res.err = engine.BestPlan(ctx, site, m)
+			res.base, res.baseR, res.err = planners.BestPlan(ctx, site, m)
 		}
 		if res.err == nil {
-			opt := engine.Options{Budget: budget, Seed: searchSeed, Iterations: iters, Progress: func(p engine.Progress) {
+			opt := planners.Options{Budget: budget, Seed: searchSeed, Iterations: iters, Progress: func(p planners.Progress) {
 				a.post(func() {
 					if gen == a.search.gen && a.search.running {
 						a.showSearchProgress(p)
 					}
 				})
 			}}
-			res.plan, res.err = engine.MakePlan(ctx, site, planner, m, opt)
+			res.plan, res.err = planners.MakePlan(ctx, site, planner, m, opt)
 			if res.err == nil {
 				res.report, res.err = engine.Evaluate(site, res.plan, m)
 			}
@@ -250,7 +252,7 @@ func (a *App) startSearch(planner string) {
 }
 
 // showSearchProgress updates the progress bar and the best worst case found so far.
-func (a *App) showSearchProgress(p engine.Progress) {
+func (a *App) showSearchProgress(p planners.Progress) {
 	sw := &a.w.search
 	sw.bar.SetValue(math.Max(0, math.Min(1, p.Done)))
 	if math.IsInf(p.Best, 0) || math.IsNaN(p.Best) {

@@ -10,11 +10,13 @@ import (
 	"fyne.io/fyne/v2/test"
 
 	"duosweep/engine"
+	"duosweep/engine/planners"
+	"duosweep/engine/search"
 	"duosweep/projects"
 )
 
 // The search action must show what the engine's search planners return: every expected figure below is
-// computed by calling the engine directly (engine.BestPlan for the published planners, engine.Evaluate
+// computed by calling the engine directly (planners.BestPlan for the published planners, engine.Evaluate
 // for the searched plan), never read back from the window.
 
 // waitForSearchProgress runs posted UI work until the running search has reported progress at least
@@ -177,7 +179,7 @@ func TestEditOrModelSwitchCancelsSearch(t *testing.T) {
 				t.Fatal(err)
 			}
 		}},
-		{"model switch", func() { a.w.model.SetSelected(modelLabels[1-a.model]) }},
+		{"model switch", func() { a.w.model.SetSelected(a.model.Other().Label()) }},
 	} {
 		start := time.Now()
 		test.Tap(a.w.search.run)
@@ -210,7 +212,7 @@ func TestProveBestOfClassOnSmallSite(t *testing.T) {
 	// a site over the exhaustive planner's limits: the button is off, with the reason
 	h := newHarness(t, "")
 	h.edit("many leaves", func(sc *engine.Scenario) error {
-		for i := 0; i <= engine.ExhaustiveMaxCandidates; i++ {
+		for i := 0; i <= search.ExhaustiveMaxCandidates; i++ {
 			id := fmt.Sprintf("leaf%d", i)
 			sc.Nodes = append(sc.Nodes, engine.Node{ID: id, X: float64(10 * i), Y: -40, HasXY: true, Candidate: true})
 			sc.Corridors = append(sc.Corridors, engine.Corridor{From: sc.Start, To: id, Length: 20})
@@ -220,7 +222,7 @@ func TestProveBestOfClassOnSmallSite(t *testing.T) {
 	if h.app.planErr != nil {
 		t.Fatal(h.app.planErr)
 	}
-	if err := engine.CheckExhaustiveSize(h.app.site); err == nil {
+	if err := search.CheckExhaustiveSize(h.app.site); err == nil {
 		t.Fatal("the site is within the exhaustive planner's limits; this test needs a larger site")
 	}
 	if !h.app.w.search.prove.Disabled() || !h.app.w.search.proveHint.Visible() {
@@ -242,7 +244,7 @@ func TestProveBestOfClassOnSmallSite(t *testing.T) {
 		t.Fatalf("no result; status %q", a.w.search.status.Text)
 	}
 	s, _, br := engineBest(t, a.editor.Scenario(), engine.Radio)
-	p, xr, err := engine.Exhaustive(t.Context(), s, engine.Radio, engine.Options{Budget: 5 * time.Second, Seed: searchSeed})
+	p, xr, err := search.Exhaustive(t.Context(), s, engine.Radio, planners.Options{Budget: 5 * time.Second, Seed: searchSeed})
 	if err != nil || !xr.Proven {
 		t.Fatalf("engine exhaustive on the tee junction: proven %v, %v", xr.Proven, err)
 	}

@@ -12,6 +12,7 @@ import (
 	"time"
 
 	"duosweep/engine"
+	"duosweep/engine/planners"
 	"duosweep/projects"
 )
 
@@ -215,7 +216,7 @@ func parseModel(v string) (engine.Model, error) {
 }
 
 func plannerList() string {
-	ps := engine.Planners()
+	ps := planners.Planners()
 	if len(ps) == 0 {
 		return "none registered"
 	}
@@ -227,13 +228,13 @@ func plannerList() string {
 }
 
 // findPlanner returns the registered planner called name.
-func findPlanner(name string) (engine.PlannerInfo, error) {
-	for _, p := range engine.Planners() {
+func findPlanner(name string) (planners.PlannerInfo, error) {
+	for _, p := range planners.Planners() {
 		if p.Name == name {
 			return p, nil
 		}
 	}
-	return engine.PlannerInfo{}, fmt.Errorf("--planner: %q: unknown planner (known: %s)", name, plannerList())
+	return planners.PlannerInfo{}, fmt.Errorf("--planner: %q: unknown planner (known: %s)", name, plannerList())
 }
 
 // budget turns --seconds into a planner budget; negative or non-finite values are bad input.
@@ -245,9 +246,9 @@ func budget(sec float64) (time.Duration, error) {
 }
 
 // progressTo returns a progress callback that writes to w at most four times a second.
-func progressTo(w io.Writer, planner string) func(engine.Progress) {
+func progressTo(w io.Writer, planner string) func(planners.Progress) {
 	var last time.Time
-	return func(p engine.Progress) {
+	return func(p planners.Progress) {
 		now := time.Now()
 		if now.Sub(last) < 250*time.Millisecond {
 			return
@@ -258,9 +259,9 @@ func progressTo(w io.Writer, planner string) func(engine.Progress) {
 }
 
 // makePlan runs the named planner ("" = the best non-search planner) and evaluates the plan under m.
-func makePlan(e *env, s *engine.Site, name string, m engine.Model, opt engine.Options) (*engine.Plan, *engine.Report, error) {
+func makePlan(e *env, s *engine.Site, name string, m engine.Model, opt planners.Options) (*engine.Plan, *engine.Report, error) {
 	if name == "" {
-		p, r, err := engine.BestPlan(e.ctx, s, m)
+		p, r, err := planners.BestPlan(e.ctx, s, m)
 		if err != nil {
 			return nil, nil, failure{err}
 		}
@@ -276,7 +277,7 @@ func makePlan(e *env, s *engine.Site, name string, m engine.Model, opt engine.Op
 	if info.Search && opt.Progress == nil {
 		opt.Progress = progressTo(e.stderr, name)
 	}
-	p, err := engine.MakePlan(e.ctx, s, name, m, opt)
+	p, err := planners.MakePlan(e.ctx, s, name, m, opt)
 	if err != nil {
 		return nil, nil, failure{err}
 	}

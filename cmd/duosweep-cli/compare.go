@@ -9,6 +9,7 @@ import (
 	"time"
 
 	"duosweep/engine"
+	"duosweep/engine/planners"
 	"duosweep/projects"
 )
 
@@ -70,18 +71,18 @@ func compareRows(e *env, s *engine.Site, b time.Duration, seed int64) ([]compare
 	var rows []compareRow
 	var bestP [2]*engine.Plan
 	var bestR [2]*engine.Report
-	for _, info := range engine.Planners() {
+	for _, info := range planners.Planners() {
 		for _, m := range engine.Models {
 			if !info.Supports(m) {
 				rows = append(rows, compareRow{planner: info.Name, model: m, note: "n/a"})
 				continue
 			}
-			opt := engine.Options{Seed: seed}
+			opt := planners.Options{Seed: seed}
 			if info.Search {
 				opt.Budget = b
 				opt.Progress = progressTo(e.stderr, info.Name)
 			}
-			p, err := engine.MakePlan(e.ctx, s, info.Name, m, opt)
+			p, err := planners.MakePlan(e.ctx, s, info.Name, m, opt)
 			if err != nil {
 				if errors.Is(err, e.ctx.Err()) && e.ctx.Err() != nil {
 					return nil, failure{err}
@@ -102,7 +103,7 @@ func compareRows(e *env, s *engine.Site, b time.Duration, seed int64) ([]compare
 	}
 	// the best plan of each model under the other model: what losing (or gaining) radios does
 	for _, m := range engine.Models {
-		other := 1 - m
+		other := m.Other()
 		label := fmt.Sprintf("%s best under %s", m, other)
 		if bestP[m] == nil {
 			rows = append(rows, compareRow{planner: label, model: other, note: "n/a (no plan for " + m.String() + ")"})

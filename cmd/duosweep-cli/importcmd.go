@@ -13,6 +13,7 @@ import (
 	"strings"
 
 	"duosweep/engine"
+	"duosweep/engine/planners"
 	"duosweep/importer"
 	"duosweep/projects"
 )
@@ -195,7 +196,7 @@ func runExport(e *env, args []string) error {
 	var plan *engine.Plan
 	var rep *engine.Report
 	if len(s.Candidates()) > 0 {
-		if plan, rep, err = engine.BestPlan(ctx, s, m); err != nil {
+		if plan, rep, err = planners.BestPlan(ctx, s, m); err != nil {
 			return failf("plan: %v", err)
 		}
 	}

@@ -15,6 +15,7 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"duosweep/engine"
+	"duosweep/engine/planners"
 	"duosweep/projects"
 )
 
@@ -45,7 +46,7 @@ func genFile(t *testing.T, family string, n int) string {
 
 func needPlanners(t *testing.T, m engine.Model) {
 	t.Helper()
-	for _, p := range engine.PlannersFor(m) {
+	for _, p := range planners.PlannersFor(m) {
 		if !p.Search {
 			return
 		}
@@ -129,7 +130,7 @@ func TestPlanDemo(t *testing.T) {
 
 			// the best plan is no worse than any single non-search planner
 			worst := rep["worst"].(map[string]any)["evacuated_at"].(float64)
-			for _, info := range engine.PlannersFor(m) {
+			for _, info := range planners.PlannersFor(m) {
 				if info.Search {
 					continue
 				}
@@ -190,12 +191,12 @@ func TestEvalModels(t *testing.T) {
 }
 
 func TestCompare(t *testing.T) {
-	if len(engine.Planners()) == 0 {
+	if len(planners.Planners()) == 0 {
 		t.Skip("no planner registered yet (engine planners are written in parallel)")
 	}
 	code, out, stderr := runCLI("compare", demoFile(t), "--seconds", "0.2")
 	require.Equal(t, 0, code, stderr)
-	for _, info := range engine.Planners() {
+	for _, info := range planners.Planners() {
 		for _, m := range engine.Models {
 			line := findLine(out, info.Name, m.String())
 			require.NotEmpty(t, line, "row for %s %s", info.Name, m)

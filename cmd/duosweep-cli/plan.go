@@ -3,7 +3,7 @@ package main
 import (
 	"flag"
 
-	"duosweep/engine"
+	"duosweep/engine/planners"
 	"duosweep/projects"
 )
 
@@ -58,7 +58,7 @@ func runPlan(e *env, args []string) error {
 	if err != nil {
 		return err
 	}
-	p, r, err := makePlan(e, s, o.planner, m, engine.Options{Seed: o.seed, Budget: b})
+	p, r, err := makePlan(e, s, o.planner, m, planners.Options{Seed: o.seed, Budget: b})
 	if err != nil {
 		return err
 	}

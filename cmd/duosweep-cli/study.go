@@ -15,6 +15,8 @@ import (
 
 	"duosweep/engine"
 	"duosweep/engine/gen"
+	"duosweep/engine/planners"
+	"duosweep/engine/search"
 )
 
 func init() {
@@ -198,7 +200,7 @@ func studySite(fam string, n int, seed int64) (*engine.Site, error) {
 // every published planner, of the best of them, and of improve with the budget.
 func studyGaps(e *env, w io.Writer, hdr *studyHeader, fams []string, sizes []int, seeds int, models []engine.Model, b time.Duration) error {
 	var published []string
-	for _, p := range engine.Planners() {
+	for _, p := range planners.Planners() {
 		if !p.Search {
 			published = append(published, p.Name)
 		}
@@ -242,7 +244,7 @@ func studyGaps(e *env, w io.Writer, hdr *studyHeader, fams []string, sizes []int
 						if !info.Supports(m) {
 							continue
 						}
-						p, err := engine.MakePlan(e.ctx, s, name, m, engine.Options{})
+						p, err := planners.MakePlan(e.ctx, s, name, m, planners.Options{})
 						if err != nil {
 							return failure{err}
 						}
@@ -256,7 +258,7 @@ func studyGaps(e *env, w io.Writer, hdr *studyHeader, fams []string, sizes []int
 						}
 					}
 					stat(key{fam, n, m, "best published"}).add(bestGap)
-					p, res, err := engine.Improve(e.ctx, s, m, engine.Options{Budget: b, Seed: int64(seed)})
+					p, res, err := search.Improve(e.ctx, s, m, planners.Options{Budget: b, Seed: int64(seed)})
 					if err != nil {
 						return failure{err}
 					}
@@ -362,12 +364,12 @@ func studyExhaustive(e *env, w io.Writer, hdr *studyHeader, fams []string, sizes
 					if err != nil {
 						return err
 					}
-					if err := engine.CheckExhaustiveSize(s); err != nil {
+					if err := search.CheckExhaustiveSize(s); err != nil {
 						fmt.Fprintf(e.stderr, "study: %s n=%d: %v\n", fam, n, err)
 						continue
 					}
 					t0 := time.Now()
-					_, res, err := engine.Exhaustive(e.ctx, s, m, engine.Options{Budget: b, Seed: int64(seed)})
+					_, res, err := search.Exhaustive(e.ctx, s, m, planners.Options{Budget: b, Seed: int64(seed)})
 					if err != nil {
 						return failure{err}
 					}

@@ -1,4 +1,4 @@
-package engine
+package search
 
 // The tour phase of the improve planner: local search over the
 // opposite-tours class with free child orders and a free split point.
@@ -20,6 +20,9 @@ import (
 	"context"
 	"math"
 	"time"
+
+	"duosweep/engine"
+	"duosweep/engine/published"
 )
 
 type tourState struct {
@@ -35,36 +38,36 @@ func (ts *tourState) clone() *tourState {
 }
 
 // tourWalk returns the closed tour of the search tree in ts's child order.
-func (im *improver) tourWalk(ts *tourState) *Walk {
+func (im *improver) tourWalk(ts *tourState) *engine.Walk {
 	s := im.s
-	w := &Walk{Nodes: make([]int, 0, 2*len(im.tourNodes)), Arc: make([]float64, 0, 2*len(im.tourNodes))}
-	w.push(s, s.Start)
-	s.appendTourWith(w, s.Start, func(v int) []int { return ts.kids[v] }, nil)
+	w := &engine.Walk{Nodes: make([]int, 0, 2*len(im.tourNodes)), Arc: make([]float64, 0, 2*len(im.tourNodes))}
+	w.Push(s, s.Start)
+	s.AppendTourWith(w, s.Start, func(v int) []int { return ts.kids[v] }, nil)
 	return w
 }
 
 // tourPlan returns the plan of state ts and its tour.
-func (im *improver) tourPlan(ts *tourState) (*Plan, *Walk) {
+func (im *improver) tourPlan(ts *tourState) (*engine.Plan, *engine.Walk) {
 	w := im.tourWalk(ts)
 	return im.tourPlanOn(ts, w), w
 }
 
 // tourPlanOn returns the plan of state ts on its tour w.
-func (im *improver) tourPlanOn(ts *tourState, w *Walk) *Plan {
-	return &Plan{Planner: "improve", Model: im.m, Routes: oppositeRoutes(im.s, im.m, w, ts.fw, ts.cut)}
+func (im *improver) tourPlanOn(ts *tourState, w *engine.Walk) *engine.Plan {
+	return &engine.Plan{Planner: "improve", Model: im.m, Routes: published.OppositeRoutes(im.s, im.m, w, ts.fw, ts.cut)}
 }
 
 // tourStart returns the best state over the child rules and directions
 // (the opposite-tours plans, with the balanced cut), with its plan, tour and
 // report, stopping early at the deadline or on cancellation (nil when not
 // even one was scored).
-func (im *improver) tourStart(ctx context.Context, deadline time.Time, res *ImproveResult) (*tourState, *Plan, *Walk, *Report) {
+func (im *improver) tourStart(ctx context.Context, deadline time.Time, res *ImproveResult) (*tourState, *engine.Plan, *engine.Walk, *engine.Report) {
 	s := im.s
 	var best *tourState
-	var bestP *Plan
-	var bestW *Walk
-	var bestR *Report
-	for _, o := range s.orders(AllOrders) {
+	var bestP *engine.Plan
+	var bestW *engine.Walk
+	var bestR *engine.Report
+	for _, o := range published.Orders(s, engine.AllOrders) {
 		for fw := 0; fw < 2; fw++ {
 			if ctx.Err() != nil || !deadline.IsZero() && time.Now().After(deadline) {
 				return best, bestP, bestW, bestR
@@ -74,9 +77,9 @@ func (im *improver) tourStart(ctx context.Context, deadline time.Time, res *Impr
 				ts.kids[v] = s.SearchChildren(v, o) // shared, never written: moves copy
 			}
 			w := im.tourWalk(ts)
-			ts.cut = balancedCut(s, w, fw)
+			ts.cut = published.BalancedCut(s, w, fw)
 			p := im.tourPlanOn(ts, w)
-			r, err := Evaluate(s, p, im.m)
+			r, err := engine.Evaluate(s, p, im.m)
 			res.Evaluations++
 			if err != nil || !r.Complete {
 				continue
@@ -90,7 +93,7 @@ func (im *improver) tourStart(ctx context.Context, deadline time.Time, res *Impr
 }
 
 // tourMutate returns a changed copy of ts (w is ts's tour), or nil.
-func (im *improver) tourMutate(ts *tourState, w *Walk) *tourState {
+func (im *improver) tourMutate(ts *tourState, w *engine.Walk) *tourState {
 	s := im.s
 	rng := im.rng
 	c := ts.clone()
@@ -145,7 +148,7 @@ func (im *improver) tourMutate(ts *tourState, w *Walk) *tourState {
 
 // tourPhase runs the tour search for at most iters iterations (when > 0) or
 // until the deadline, and returns its best plan and report.
-func (im *improver) tourPhase(ctx context.Context, iters int, deadline time.Time, res *ImproveResult) (*Plan, *Report) {
+func (im *improver) tourPhase(ctx context.Context, iters int, deadline time.Time, res *ImproveResult) (*engine.Plan, *engine.Report) {
 	s := im.s
 	if im.tourNodes == nil {
 		for _, v := range s.Order {
@@ -173,7 +176,7 @@ func (im *improver) tourPhase(ctx context.Context, iters int, deadline time.Time
 			continue
 		}
 		p, w := im.tourPlan(c)
-		r, err := Evaluate(s, p, im.m)
+		r, err := engine.Evaluate(s, p, im.m)
 		res.Evaluations++
 		if err != nil || !r.Complete {
 			continue
@@ -182,7 +185,7 @@ func (im *improver) tourPhase(ctx context.Context, iters int, deadline time.Time
 			cur, curW, curScore = c, w, sc
 			res.Accepted++
 		}
-		if better(r, bestR) {
+		if engine.Better(r, bestR) {
 			bestP, bestR = p, r
 		}
 	}

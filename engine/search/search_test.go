@@ -1,4 +1,4 @@
-package engine
+package search
 
 import (
 	"context"
@@ -8,58 +8,11 @@ import (
 	"time"
 
 	"github.com/stretchr/testify/require"
+
+	"duosweep/engine"
+	"duosweep/engine/internal/fixtures"
+	"duosweep/engine/published"
 )
-
-// searchTree draws a random tree of n nodes for the search tests: random
-// attachment, integer or real corridor lengths, a random start, random
-// candidates (at least one), sometimes unequal speeds. Invented test data.
-func searchTree(seed uint64, n int) Scenario {
-	r := newTestRand(seed)
-	sc := Scenario{Name: fmt.Sprintf("search-%d", seed), Agents: []Agent{{Name: "A", Speed: 1}, {Name: "B", Speed: 1}}}
-	ints := r.IntN(2) == 0
-	for i := 0; i < n; i++ {
-		sc.Nodes = append(sc.Nodes, Node{ID: fmt.Sprintf("n%d", i)})
-		if i > 0 {
-			w := float64(1 + r.IntN(9))
-			if !ints {
-				w = math.Round((0.2+9.8*r.Float64())*100) / 100
-			}
-			sc.Corridors = append(sc.Corridors, Corridor{From: fmt.Sprintf("n%d", r.IntN(i)), To: fmt.Sprintf("n%d", i), Length: w})
-		}
-	}
-	start := r.IntN(n)
-	sc.Start = sc.Nodes[start].ID
-	q := []float64{1, 1, 0.7, 0.4}[r.IntN(4)]
-	k := 0
-	for i := range sc.Nodes {
-		if i != start && r.Float64() < q {
-			sc.Nodes[i].Candidate = true
-			k++
-		}
-	}
-	if k == 0 {
-		sc.Nodes[(start+1)%n].Candidate = true
-	}
-	if r.IntN(6) == 0 {
-		sc.Agents[1].Speed = 1.5
-	}
-	return sc
-}
-
-func mustSite(t testing.TB, sc Scenario) *Site {
-	t.Helper()
-	s, err := NewSite(sc)
-	require.NoError(t, err)
-	return s
-}
-
-func worstOf(t testing.TB, s *Site, p *Plan, m Model) float64 {
-	t.Helper()
-	r, err := Evaluate(s, p, m)
-	require.NoError(t, err)
-	require.True(t, r.Complete)
-	return r.Worst
-}
 
 // The branch and bound (bounds, memo, symmetry and dominance cuts) finds the
 // same class optimum as plain enumeration of the class.
@@ -69,8 +22,8 @@ func TestExhaustiveMatchesEnumeration(t *testing.T) {
 		n = 15
 	}
 	for seed := uint64(1); seed <= n; seed++ {
-		s := mustSite(t, searchTree(seed, 2+int(seed%5)))
-		for _, m := range Models {
+		s := fixtures.MustSite(t, fixtures.SearchTree(seed, 2+int(seed%5)))
+		for _, m := range engine.Models {
 			p1, r1, err := exhaustive(context.Background(), s, m, Options{Budget: time.Minute}, exConfig{noSeed: true})
 			require.NoError(t, err)
 			p2, r2, err := exhaustive(context.Background(), s, m, Options{Budget: time.Minute}, exConfig{noSeed: true, noPrune: true})
@@ -80,33 +33,10 @@ func TestExhaustiveMatchesEnumeration(t *testing.T) {
 			// against a search that silently scores every leaf as infinite)
 			require.Equal(t, "exhaustive", r1.Incumbent, "seed %d %s", seed, m)
 			require.Equal(t, "exhaustive", r2.Incumbent, "seed %d %s", seed, m)
-			w1, w2 := worstOf(t, s, p1, m), worstOf(t, s, p2, m)
+			w1, w2 := fixtures.WorstOf(t, s, p1, m), fixtures.WorstOf(t, s, p2, m)
 			require.InDelta(t, w2, w1, 1e-9*w2, "seed %d %s: branch and bound %g, enumeration %g (states %d vs %d)", seed, m, w1, w2, r1.States, r2.States)
 		}
 	}
-}
-
-// subsetHalf reports whether a splits into two parts of equal sum (brute force).
-func subsetHalf(a []int) bool {
-	sum := 0
-	for _, x := range a {
-		sum += x
-	}
-	if sum%2 != 0 {
-		return false
-	}
-	for mask := 0; mask < 1<<len(a); mask++ {
-		h := 0
-		for i, x := range a {
-			if mask&(1<<i) != 0 {
-				h += x
-			}
-		}
-		if 2*h == sum {
-			return true
-		}
-	}
-	return false
 }
 
 // PARTITION stars (MODEL.md §6, the NP-hardness reduction from PARTITION):
@@ -115,7 +45,7 @@ func subsetHalf(a []int) bool {
 // and more than W when they do not. The halves are decided here by brute force
 // over subsets, independently of the planner.
 func TestExhaustivePartitionStars(t *testing.T) {
-	r := newTestRand(77)
+	r := fixtures.NewRand(77)
 	yes, no := 0, 0
 	for yes < 16 || no < 16 {
 		n := 3 + r.IntN(4)
@@ -123,7 +53,7 @@ func TestExhaustivePartitionStars(t *testing.T) {
 		for i := range a {
 			a[i] = 1 + r.IntN(7)
 		}
-		part := subsetHalf(a)
+		part := fixtures.SubsetHalf(a)
 		if part && yes >= 16 || !part && no >= 16 {
 			continue
 		}
@@ -140,14 +70,14 @@ func TestExhaustivePartitionStars(t *testing.T) {
 		}
 		M := float64(sum + 1 + r.IntN(5))
 		legs = append(legs, M)
-		s := mustSite(t, star(legs...))
-		W := ComputeBounds(s).W
+		s := fixtures.MustSite(t, fixtures.Star(legs...))
+		W := engine.ComputeBounds(s).W
 		require.Equal(t, float64(sum)+M, W)
-		for _, m := range Models {
+		for _, m := range engine.Models {
 			p, res, err := Exhaustive(context.Background(), s, m, Options{Budget: time.Minute})
 			require.NoError(t, err)
 			require.True(t, res.Proven, "%v %s", a, m)
-			w := worstOf(t, s, p, m)
+			w := fixtures.WorstOf(t, s, p, m)
 			if part {
 				require.InDelta(t, W, w, 1e-9*W, "%v M=%g %s: a partition exists, want worst W=%g", a, M, m, W)
 			} else {
@@ -166,14 +96,14 @@ func TestExhaustivePartitionStars(t *testing.T) {
 // face-to-face plan with worst 5 (meet at the centre at t = 2, then both
 // take l2 and l4 together), so 5 is the face-to-face optimum too.
 func TestExhaustiveStarFourUnitLeaves(t *testing.T) {
-	s := mustSite(t, star(1, 1, 1, 1))
-	require.Equal(t, 4.0, ComputeBounds(s).LB1)
-	require.Equal(t, 5.0, ComputeBounds(s).LB)
-	for _, m := range Models {
+	s := fixtures.MustSite(t, fixtures.Star(1, 1, 1, 1))
+	require.Equal(t, 4.0, engine.ComputeBounds(s).LB1)
+	require.Equal(t, 5.0, engine.ComputeBounds(s).LB)
+	for _, m := range engine.Models {
 		p, res, err := Exhaustive(context.Background(), s, m, Options{})
 		require.NoError(t, err)
 		require.True(t, res.Proven)
-		w := worstOf(t, s, p, m)
+		w := fixtures.WorstOf(t, s, p, m)
 		require.InDelta(t, 5.0, w, 1e-9, m.String())
 		require.Contains(t, p.Note, "best of class")
 		t.Logf("%s: worst %g (%s)", m, w, p.Note)
@@ -195,26 +125,26 @@ func TestSearchPlannersOnSmallTrees(t *testing.T) {
 	const iters = ExhaustiveImproveIterations
 	hit, total, outside, own := 0, 0, 0, 0
 	for i := 0; i < trees; i++ {
-		s := mustSite(t, searchTree(uint64(5000+i), 2+i%8))
-		lb := ComputeBounds(s).LB
-		for _, m := range Models {
+		s := fixtures.MustSite(t, fixtures.SearchTree(uint64(5000+i), 2+i%8))
+		lb := engine.ComputeBounds(s).LB
+		for _, m := range engine.Models {
 			pi, ir, err := Improve(context.Background(), s, m, Options{Iterations: iters, Seed: 1})
 			require.NoError(t, err)
-			wi := worstOf(t, s, pi, m)
+			wi := fixtures.WorstOf(t, s, pi, m)
 			require.LessOrEqual(t, wi, ir.Start*(1+1e-12), "tree %d %s: improve worse than its start", i, m)
 			// Exhaustive(…, Options{Seed: 1}) would repeat this very improve run as its seed
 			pe, res, err := exhaustive(context.Background(), s, m, Options{Budget: time.Minute, Seed: 1}, exConfig{improved: clonePlan(pi)})
 			require.NoError(t, err)
 			require.True(t, res.Proven, "tree %d %s", i, m)
-			we := worstOf(t, s, pe, m)
+			we := fixtures.WorstOf(t, s, pe, m)
 			require.GreaterOrEqual(t, we, lb*(1-1e-9), "tree %d %s", i, m)
-			for _, info := range PlannersFor(m) {
-				if info.Name == "exhaustive" || info.Name == "improve" {
+			for _, info := range published.Planners() {
+				if !info.Supports(m) {
 					continue
 				}
-				p, err := MakePlan(context.Background(), s, info.Name, m, Options{})
+				p, err := published.MakePlan(context.Background(), s, info.Name, m)
 				require.NoError(t, err)
-				require.LessOrEqual(t, we, worstOf(t, s, p, m)*(1+1e-9), "tree %d %s: exhaustive vs %s", i, m, info.Name)
+				require.LessOrEqual(t, we, fixtures.WorstOf(t, s, p, m)*(1+1e-9), "tree %d %s: exhaustive vs %s", i, m, info.Name)
 			}
 			total++
 			if wi <= we*(1+1e-9) {
@@ -241,20 +171,20 @@ func TestSearchPlannersOnSmallTrees(t *testing.T) {
 // worse than the start); an already cancelled context is an error.
 func TestSearchCancellation(t *testing.T) {
 	// a binary tree of 15 nodes with uneven corridors: seconds of face-to-face search
-	sc := Scenario{Name: "binary", Start: "b0", Nodes: []Node{{ID: "b0"}}}
+	sc := engine.Scenario{Name: "binary", Start: "b0", Nodes: []engine.Node{{ID: "b0"}}}
 	for i := 1; i < 15; i++ {
-		sc.Nodes = append(sc.Nodes, Node{ID: fmt.Sprintf("b%d", i), Candidate: true})
-		sc.Corridors = append(sc.Corridors, Corridor{From: fmt.Sprintf("b%d", (i-1)/2), To: fmt.Sprintf("b%d", i), Length: float64(1 + (7*i)%9)})
+		sc.Nodes = append(sc.Nodes, engine.Node{ID: fmt.Sprintf("b%d", i), Candidate: true})
+		sc.Corridors = append(sc.Corridors, engine.Corridor{From: fmt.Sprintf("b%d", (i-1)/2), To: fmt.Sprintf("b%d", i), Length: float64(1 + (7*i)%9)})
 	}
-	s := mustSite(t, sc)
+	s := fixtures.MustSite(t, sc)
 	ctx, cancel := context.WithCancel(context.Background())
 	cancel()
-	_, _, err := Exhaustive(ctx, s, FaceToFace, Options{})
+	_, _, err := Exhaustive(ctx, s, engine.FaceToFace, Options{})
 	require.ErrorIs(t, err, context.Canceled)
-	_, _, err = Improve(ctx, s, FaceToFace, Options{})
+	_, _, err = Improve(ctx, s, engine.FaceToFace, Options{})
 	require.ErrorIs(t, err, context.Canceled)
 
-	for _, m := range Models {
+	for _, m := range engine.Models {
 		ctx, cancel := context.WithTimeout(context.Background(), 100*time.Millisecond)
 		t0 := time.Now()
 		p, res, err := Exhaustive(ctx, s, m, Options{Budget: time.Hour})
@@ -266,10 +196,10 @@ func TestSearchCancellation(t *testing.T) {
 			require.Contains(t, p.Note, "cancelled")
 		}
 		require.Less(t, time.Since(t0), 20*time.Second, "exhaustive ignored the cancellation")
-		if m == FaceToFace {
+		if m == engine.FaceToFace {
 			require.False(t, res.Proven, "face to face on this tree takes far longer than 100 ms")
 		}
-		worstOf(t, s, p, m)
+		fixtures.WorstOf(t, s, p, m)
 
 		ctx, cancel = context.WithTimeout(context.Background(), 200*time.Millisecond)
 		t0 = time.Now()
@@ -277,19 +207,19 @@ func TestSearchCancellation(t *testing.T) {
 		cancel()
 		require.NoError(t, err)
 		require.Less(t, time.Since(t0), 20*time.Second, "improve ignored the cancellation")
-		require.LessOrEqual(t, worstOf(t, s, pi, m), ir.Start*(1+1e-12))
+		require.LessOrEqual(t, fixtures.WorstOf(t, s, pi, m), ir.Start*(1+1e-12))
 	}
 }
 
 // The time limit stops exhaustive with its best plan so far, marked NOT proven.
 func TestExhaustiveTimeLimit(t *testing.T) {
-	s := mustSite(t, star(3, 1, 4, 1, 5, 9, 2, 6, 5, 3, 5, 8, 9, 7, 9))
-	p, res, err := Exhaustive(context.Background(), s, FaceToFace, Options{Budget: time.Millisecond})
+	s := fixtures.MustSite(t, fixtures.Star(3, 1, 4, 1, 5, 9, 2, 6, 5, 3, 5, 8, 9, 7, 9))
+	p, res, err := Exhaustive(context.Background(), s, engine.FaceToFace, Options{Budget: time.Millisecond})
 	require.NoError(t, err)
 	require.False(t, res.Proven)
 	require.Contains(t, p.Note, "NOT proven")
 	require.Contains(t, p.Note, "time limit")
-	worstOf(t, s, p, FaceToFace)
+	fixtures.WorstOf(t, s, p, engine.FaceToFace)
 }
 
 // Sites over the limits are refused up front with an error naming the limit.
@@ -298,19 +228,19 @@ func TestExhaustiveRefusesLargeSites(t *testing.T) {
 	for i := range legs {
 		legs[i] = float64(1 + i%3)
 	}
-	s := mustSite(t, star(legs...))
-	_, err := MakePlan(context.Background(), s, "exhaustive", Radio, Options{})
+	s := fixtures.MustSite(t, fixtures.Star(legs...))
+	_, err := planExhaustive(context.Background(), s, engine.Radio, Options{})
 	require.ErrorIs(t, err, ErrSiteTooLarge)
 	require.Contains(t, err.Error(), fmt.Sprintf("%d candidates, the limit is %d", ExhaustiveMaxCandidates+1, ExhaustiveMaxCandidates))
 
 	// a long path with candidates only near its end: few candidates, many search-tree nodes
-	sc := Scenario{Name: "long path", Start: "p0", Nodes: []Node{{ID: "p0"}}}
+	sc := engine.Scenario{Name: "long path", Start: "p0", Nodes: []engine.Node{{ID: "p0"}}}
 	for i := 1; i <= ExhaustiveMaxNodes; i++ {
-		sc.Nodes = append(sc.Nodes, Node{ID: fmt.Sprintf("p%d", i), Candidate: i > ExhaustiveMaxNodes-3})
-		sc.Corridors = append(sc.Corridors, Corridor{From: fmt.Sprintf("p%d", i-1), To: fmt.Sprintf("p%d", i), Length: 1})
+		sc.Nodes = append(sc.Nodes, engine.Node{ID: fmt.Sprintf("p%d", i), Candidate: i > ExhaustiveMaxNodes-3})
+		sc.Corridors = append(sc.Corridors, engine.Corridor{From: fmt.Sprintf("p%d", i-1), To: fmt.Sprintf("p%d", i), Length: 1})
 	}
-	s = mustSite(t, sc)
-	_, err = MakePlan(context.Background(), s, "exhaustive", FaceToFace, Options{})
+	s = fixtures.MustSite(t, sc)
+	_, err = planExhaustive(context.Background(), s, engine.FaceToFace, Options{})
 	require.ErrorIs(t, err, ErrSiteTooLarge)
 	require.Contains(t, err.Error(), fmt.Sprintf("%d nodes in the search tree, the limit is %d", ExhaustiveMaxNodes+1, ExhaustiveMaxNodes))
 }
@@ -323,9 +253,9 @@ func TestImproveDeterministicAndNeverWorse(t *testing.T) {
 		n = 4
 	}
 	for i := 0; i < n; i++ {
-		s := mustSite(t, searchTree(uint64(9000+i), 20+7*i))
-		for _, m := range Models {
-			_, br, err := BestPlan(context.Background(), s, m)
+		s := fixtures.MustSite(t, fixtures.SearchTree(uint64(9000+i), 20+7*i))
+		for _, m := range engine.Models {
+			_, br, err := published.BestPlan(context.Background(), s, m)
 			require.NoError(t, err)
 			opt := Options{Iterations: 400, Seed: int64(i)}
 			p1, r1, err := Improve(context.Background(), s, m, opt)
@@ -334,17 +264,17 @@ func TestImproveDeterministicAndNeverWorse(t *testing.T) {
 			require.NoError(t, err)
 			require.Equal(t, p1.Routes, p2.Routes, "tree %d %s: same seed and iterations, different plans", i, m)
 			require.Equal(t, br.Worst, r1.Start)
-			require.LessOrEqual(t, worstOf(t, s, p1, m), br.Worst*(1+1e-12), "tree %d %s", i, m)
+			require.LessOrEqual(t, fixtures.WorstOf(t, s, p1, m), br.Worst*(1+1e-12), "tree %d %s", i, m)
 		}
 	}
 }
 
 // Progress reports come at most about ten times a second.
 func TestSearchProgress(t *testing.T) {
-	s := mustSite(t, searchTree(4242, 60))
+	s := fixtures.MustSite(t, fixtures.SearchTree(4242, 60))
 	var reps []Progress
 	start := time.Now()
-	_, _, err := Improve(context.Background(), s, FaceToFace, Options{Budget: 600 * time.Millisecond, Progress: func(p Progress) { reps = append(reps, p) }})
+	_, _, err := Improve(context.Background(), s, engine.FaceToFace, Options{Budget: 600 * time.Millisecond, Progress: func(p Progress) { reps = append(reps, p) }})
 	require.NoError(t, err)
 	el := time.Since(start)
 	require.NotEmpty(t, reps)
@@ -358,9 +288,9 @@ func TestSearchProgress(t *testing.T) {
 // benchTree builds an n-node tree of a family with whole corridor lengths
 // 1..100, every node but the start a candidate (the shapes of engine/gen,
 // rebuilt here because an engine test cannot import gen).
-func benchTree(family string, n int, seed uint64) Scenario {
-	r := newTestRand(seed)
-	sc := Scenario{Name: family, Start: "n0", Nodes: []Node{{ID: "n0"}}}
+func benchTree(family string, n int, seed uint64) engine.Scenario {
+	r := fixtures.NewRand(seed)
+	sc := engine.Scenario{Name: family, Start: "n0", Nodes: []engine.Node{{ID: "n0"}}}
 	legs := int(math.Max(1, math.Round(math.Sqrt(float64(n-1)))))
 	spine := (n + 1) / 2
 	for i := 1; i < n; i++ {
@@ -383,8 +313,8 @@ func benchTree(family string, n int, seed uint64) Scenario {
 		default:
 			p = r.IntN(i)
 		}
-		sc.Nodes = append(sc.Nodes, Node{ID: fmt.Sprintf("n%d", i), Candidate: true})
-		sc.Corridors = append(sc.Corridors, Corridor{From: fmt.Sprintf("n%d", p), To: fmt.Sprintf("n%d", i), Length: float64(1 + r.IntN(100))})
+		sc.Nodes = append(sc.Nodes, engine.Node{ID: fmt.Sprintf("n%d", i), Candidate: true})
+		sc.Corridors = append(sc.Corridors, engine.Corridor{From: fmt.Sprintf("n%d", p), To: fmt.Sprintf("n%d", i), Length: float64(1 + r.IntN(100))})
 	}
 	return sc
 }
@@ -393,9 +323,9 @@ func benchTree(family string, n int, seed uint64) Scenario {
 // optimum on 14-node sites of each family (the goal: under 10 s each).
 func BenchmarkExhaustive14(b *testing.B) {
 	for _, fam := range []string{"random", "spider", "caterpillar", "binary"} {
-		for _, m := range Models {
+		for _, m := range engine.Models {
 			b.Run(fam+"/"+m.String(), func(b *testing.B) {
-				s := mustSite(b, benchTree(fam, 14, 1))
+				s := fixtures.MustSite(b, benchTree(fam, 14, 1))
 				var states int64
 				for b.Loop() {
 					_, res, err := Exhaustive(context.Background(), s, m, Options{Budget: time.Minute})
@@ -413,9 +343,9 @@ func BenchmarkExhaustive14(b *testing.B) {
 // BenchmarkImproveEvaluations measures improve's exact evaluations per second.
 func BenchmarkImproveEvaluations(b *testing.B) {
 	for _, n := range []int{20, 100, 500} {
-		for _, m := range Models {
+		for _, m := range engine.Models {
 			b.Run(fmt.Sprintf("random%d/%s", n, m), func(b *testing.B) {
-				s := mustSite(b, benchTree("random", n, 1))
+				s := fixtures.MustSite(b, benchTree("random", n, 1))
 				evals := 0
 				t0 := time.Now()
 				for b.Loop() {
@@ -438,16 +368,16 @@ func BenchmarkImproveEvaluations(b *testing.B) {
 func TestImproveTourPhase(t *testing.T) {
 	better, total := 0, 0
 	for i := 0; i < 12; i++ {
-		s := mustSite(t, searchTree(uint64(7700+i), 40))
-		for _, m := range Models {
-			ref, err := MakePlan(context.Background(), s, "opposite-tours", m, Options{})
+		s := fixtures.MustSite(t, fixtures.SearchTree(uint64(7700+i), 40))
+		for _, m := range engine.Models {
+			ref, err := published.MakePlan(context.Background(), s, "opposite-tours", m)
 			require.NoError(t, err)
-			wRef := worstOf(t, s, ref, m)
+			wRef := fixtures.WorstOf(t, s, ref, m)
 			im := newImprover(s, m, 1)
 			var res ImproveResult
 			p, r := im.tourPhase(context.Background(), 400, time.Time{}, &res)
 			require.NotNil(t, p)
-			require.Equal(t, r.Worst, worstOf(t, s, p, m))
+			require.Equal(t, r.Worst, fixtures.WorstOf(t, s, p, m))
 			require.LessOrEqual(t, r.Worst, wRef*(1+1e-12), "tree %d %s", i, m)
 			total++
 			if r.Worst < wRef*(1-1e-9) {

@@ -1,10 +1,12 @@
-package engine
+package published
 
 import (
 	"context"
 	"fmt"
 	"math"
 	"sort"
+
+	"duosweep/engine"
 )
 
 // The hub-rendezvous planner (face-to-face model). See docs/hub-rendezvous.md
@@ -22,17 +24,11 @@ import (
 // variants are built and evaluated exactly; the best is kept, and the plain
 // face-to-face opposite-tours plan is always one of them.
 
-func init() {
-	register(PlannerInfo{Name: "hub-rendezvous", Models: []Model{FaceToFace},
-		Summary: "both explore around the weighted centroid within a time budget of W and meet there, then search what is left from it (worst ≤ 1.5·W when the parts split evenly)"},
-		planHub)
-}
-
 // hubView is the search tree seen from a point r (a node or a corridor
 // point), with needed nodes: those whose subtree (seen from r) holds a target.
 type hubView struct {
-	s        *Site
-	root     Point
+	s        *engine.Site
+	root     engine.Point
 	rootNode int   // r as a node, or -1 for a corridor point
 	top      []int // the root node, or the corridor's two ends
 	par      []int32
@@ -47,7 +43,7 @@ type hubView struct {
 	W        float64
 }
 
-func newHubView(s *Site, root Point, target []bool) *hubView {
+func newHubView(s *engine.Site, root engine.Point, target []bool) *hubView {
 	n := s.N
 	root = s.Canon(root)
 	vw := &hubView{s: s, root: root, rootNode: -1,
@@ -62,7 +58,7 @@ func newHubView(s *Site, root Point, target []bool) *hubView {
 		seen[root.From] = true
 		stack = append(stack, int32(root.From))
 	} else {
-		u, du, v, dv := s.ends(root)
+		u, du, v, dv := s.Ends(root)
 		vw.top = []int{u, v}
 		vw.par[u], vw.par[v] = -1, -1
 		vw.plen[u], vw.plen[v] = du, dv
@@ -151,8 +147,8 @@ func (vw *hubView) kids(v int) []int {
 // hubCycle is a closed walk from the point r through the needed part of a
 // view: r → w.Nodes[0] (lead), the node walk w, then back to r (tail).
 type hubCycle struct {
-	r          Point
-	w          *Walk
+	r          engine.Point
+	w          *engine.Walk
 	lead, tail float64
 }
 
@@ -163,7 +159,7 @@ func (cy *hubCycle) Len() float64 { return cy.lead + cy.w.Len() + cy.tail }
 // (kids of -1: the needed corridor ends, for a corridor root).
 func (vw *hubView) tour(order func(v int, kids []int) []int) *hubCycle {
 	s := vw.s
-	cy := &hubCycle{r: vw.root, w: &Walk{}}
+	cy := &hubCycle{r: vw.root, w: &engine.Walk{}}
 	var tops []int
 	if vw.rootNode >= 0 {
 		tops = []int{vw.rootNode}
@@ -175,9 +171,9 @@ func (vw *hubView) tour(order func(v int, kids []int) []int) *hubCycle {
 		}
 		tops = order(-1, tops)
 		if len(tops) == 0 {
-			u, du, _, _ := s.ends(vw.root)
+			u, du, _, _ := s.Ends(vw.root)
 			tops, cy.lead, cy.tail = []int{u}, du, du
-			cy.w.push(s, u)
+			cy.w.Push(s, u)
 			return cy
 		}
 		cy.lead, cy.tail = vw.plen[tops[0]], vw.plen[tops[len(tops)-1]]
@@ -187,7 +183,7 @@ func (vw *hubView) tour(order func(v int, kids []int) []int) *hubCycle {
 		i    int
 	}
 	for _, t := range tops {
-		cy.w.push(s, t)
+		cy.w.Push(s, t)
 		stack := []frame{{kids: order(t, vw.kids(t))}}
 		path := []int{t}
 		for len(stack) > 0 {
@@ -196,13 +192,13 @@ func (vw *hubView) tour(order func(v int, kids []int) []int) *hubCycle {
 				stack = stack[:len(stack)-1]
 				path = path[:len(path)-1]
 				if len(path) > 0 {
-					cy.w.push(s, path[len(path)-1])
+					cy.w.Push(s, path[len(path)-1])
 				}
 				continue
 			}
 			c := f.kids[f.i]
 			f.i++
-			cy.w.push(s, c)
+			cy.w.Push(s, c)
 			path = append(path, c)
 			stack = append(stack, frame{kids: order(c, vw.kids(c))})
 		}
@@ -213,7 +209,7 @@ func (vw *hubView) tour(order func(v int, kids []int) []int) *hubCycle {
 
 // pointAt returns the point at arclength a along the cycle and the index of
 // the last walk node at or before it (-1 inside the lead).
-func (cy *hubCycle) pointAt(s *Site, a float64) (Point, int) {
+func (cy *hubCycle) pointAt(s *engine.Site, a float64) (engine.Point, int) {
 	w := cy.w
 	first, last := w.Nodes[0], w.Nodes[len(w.Nodes)-1]
 	switch {
@@ -231,15 +227,15 @@ func (cy *hubCycle) pointAt(s *Site, a float64) (Point, int) {
 
 // towards returns the point at distance x from node v towards the corridor
 // point r (v an end of r's corridor, or r == v).
-func towards(s *Site, v int, r Point, x float64) Point {
+func towards(s *engine.Site, v int, r engine.Point, x float64) engine.Point {
 	if r.IsNode() || x <= 0 {
-		return At(v)
+		return engine.At(v)
 	}
 	other := r.To
 	if other == v {
 		other = r.From
 	}
-	return s.Canon(Point{From: v, To: other, Offset: x})
+	return s.Canon(engine.Point{From: v, To: other, Offset: x})
 }
 
 // breakpoints returns the arclengths where the cycle meets a node or its ends.
@@ -262,10 +258,10 @@ func (cy *hubCycle) breakpoints() []float64 {
 // end) to a and then straight to hub needs at most B length, and whether
 // even a = 0 fits. a + d(P(a), hub) never decreases, so a scan over the
 // breakpoints and one linear solve inside a corridor suffice.
-func (cy *hubCycle) reach(s *Site, hub Point, B float64, back bool) (float64, bool) {
+func (cy *hubCycle) reach(s *engine.Site, hub engine.Point, B float64, back bool) (float64, bool) {
 	L := cy.Len()
 	bp := cy.breakpoints()
-	pos := func(a float64) Point { // a = length walked
+	pos := func(a float64) engine.Point { // a = length walked
 		if back {
 			p, _ := cy.pointAt(s, L-a)
 			return p
@@ -312,7 +308,7 @@ func (cy *hubCycle) reach(s *Site, hub Point, B float64, back bool) (float64, bo
 // meetAtHub returns the cut m (arclength) minimising the later arrival at hub
 // when agent fa walks the cycle forwards to m and agent fb backwards to m,
 // each then going straight to hub; and that arrival time.
-func (cy *hubCycle) meetAtHub(s *Site, hub Point, vf, vb float64) (float64, float64) {
+func (cy *hubCycle) meetAtHub(s *engine.Site, hub engine.Point, vf, vb float64) (float64, float64) {
 	L := cy.Len()
 	bp := cy.breakpoints()
 	arr := func(m float64) (float64, float64) {
@@ -350,38 +346,32 @@ func (cy *hubCycle) meetAtHub(s *Site, hub Point, vf, vb float64) (float64, floa
 }
 
 // cycleFwd walks the cycle forwards from its start r to arclength a.
-func (b *routeBuilder) cycleFwd(cy *hubCycle, a float64) {
-	p, i := cy.pointAt(b.s, a)
+func cycleFwd(b *engine.RouteBuilder, cy *hubCycle, a float64) {
+	p, i := cy.pointAt(b.Site(), a)
 	if i >= 0 {
-		b.toNodes(cy.w.Nodes[:i+1])
+		b.ToNodes(cy.w.Nodes[:i+1])
 	}
-	b.to(p)
+	b.To(p)
 }
 
 // cycleBwd walks the cycle backwards from its end r down to arclength a.
-func (b *routeBuilder) cycleBwd(cy *hubCycle, a float64) {
-	p, i := cy.pointAt(b.s, a)
+func cycleBwd(b *engine.RouteBuilder, cy *hubCycle, a float64) {
+	p, i := cy.pointAt(b.Site(), a)
 	if a < cy.lead+cy.w.Len() {
 		for k := len(cy.w.Nodes) - 1; k > i; k-- {
-			b.toNodes([]int{cy.w.Nodes[k]})
+			b.ToNodes([]int{cy.w.Nodes[k]})
 		}
 		if i < 0 {
-			b.toNodes([]int{cy.w.Nodes[0]})
+			b.ToNodes([]int{cy.w.Nodes[0]})
 		}
 	}
-	b.to(p)
-}
-
-func (b *routeBuilder) clone() *routeBuilder {
-	c := *b
-	c.wps = append([]Waypoint(nil), b.wps...)
-	return &c
+	b.To(p)
 }
 
 // hubItems describes how the start's tour is arranged around the centroid:
 // the path from the start to c, and the parts hanging off it.
 type hubItems struct {
-	c      Point
+	c      engine.Point
 	d      float64 // d(start, c)
 	onPath []bool  // nodes of the start–c path (c itself when it is a node)
 	next   []int   // on the path: the child towards c (-1 at c or at the corridor's upper end past c)
@@ -389,7 +379,7 @@ type hubItems struct {
 	w      []float64
 }
 
-func hubArrange(vw *hubView, c Point) *hubItems {
+func hubArrange(vw *hubView, c engine.Point) *hubItems {
 	s := vw.s
 	it := &hubItems{c: c, onPath: make([]bool, s.N), next: make([]int, s.N)}
 	for i := range it.next {
@@ -400,7 +390,7 @@ func hubArrange(vw *hubView, c Point) *hubItems {
 	if c.IsNode() {
 		low = c.From
 	} else {
-		u, _, v, _ := s.ends(c)
+		u, _, v, _ := s.Ends(c)
 		low, far = u, v
 		if vw.depth[v] < vw.depth[u] {
 			low, far = v, u
@@ -417,14 +407,14 @@ func hubArrange(vw *hubView, c Point) *hubItems {
 	}
 	it.d = vw.depth[low]
 	if far >= 0 {
-		it.d += s.PointDist(At(low), c)
+		it.d += s.PointDist(engine.At(low), c)
 	}
 	for v := low; v >= 0; v = int(vw.par[v]) {
 		for _, k := range vw.kids(v) {
 			switch {
 			case k == far:
 				it.roots = append(it.roots, k)
-				it.w = append(it.w, vw.weight[k]-s.PointDist(At(low), c))
+				it.w = append(it.w, vw.weight[k]-s.PointDist(engine.At(low), c))
 			case k != it.next[v]:
 				it.roots = append(it.roots, k)
 				it.w = append(it.w, vw.weight[k])
@@ -485,19 +475,19 @@ const hubLargeSite = LargeSite
 // hubVariant is one candidate plan with a short tag naming how it was made.
 type hubVariant struct {
 	tag  string
-	plan *Plan
+	plan *engine.Plan
 }
 
 // hubVariants builds every variant the planner compares.
-func hubVariants(s *Site) []hubVariant {
+func hubVariants(s *engine.Site) []hubVariant {
 	var out []hubVariant
 	if len(s.Candidates()) == 0 {
-		return []hubVariant{{"empty", &Plan{Note: "no candidate junctions: nothing to search"}}}
+		return []hubVariant{{"empty", &engine.Plan{Note: "no candidate junctions: nothing to search"}}}
 	}
 	out = append(out, hubOpposite(s))
-	b := ComputeBounds(s)
+	b := engine.ComputeBounds(s)
 	c := s.Centroid()
-	vw := newHubView(s, At(s.Start), s.Candidate)
+	vw := newHubView(s, engine.At(s.Start), s.Candidate)
 	items := hubArrange(vw, c)
 	T1 := 2 * b.W / (s.Speed[0] + s.Speed[1])
 	roles := []int{0}
@@ -561,16 +551,16 @@ func hubVariants(s *Site) []hubVariant {
 
 // hubOpposite is the plain face-to-face opposite-tours plan (farthest branch
 // last, rendezvous where they meet): the safe fallback, worst ≤ 2W.
-func hubOpposite(s *Site) hubVariant {
-	w := s.Tour(OrderDeepLast)
+func hubOpposite(s *engine.Site) hubVariant {
+	w := s.Tour(engine.OrderDeepLast)
 	split := w.Len() * s.Speed[0] / (s.Speed[0] + s.Speed[1])
-	f, b := newRoute(s, 0), newRoute(s, 1)
-	f.walkPrefix(s, w, split)
-	b.walkSuffixReversed(s, w, split)
-	f.rendezvous()
-	b.rendezvous()
-	p := &Plan{Note: fmt.Sprintf("fallback: %s walks a depth-first tour forwards, %s backwards, rendezvous where they meet", s.Names[0], s.Names[1])}
-	p.Routes[0], p.Routes[1] = f.route(), b.route()
+	f, b := engine.NewRoute(s, 0), engine.NewRoute(s, 1)
+	f.WalkPrefix(s, w, split)
+	b.WalkSuffixReversed(s, w, split)
+	f.Rendezvous()
+	b.Rendezvous()
+	p := &engine.Plan{Note: fmt.Sprintf("fallback: %s walks a depth-first tour forwards, %s backwards, rendezvous where they meet", s.Names[0], s.Names[1])}
+	p.Routes[0], p.Routes[1] = f.Route(), b.Route()
 	return hubVariant{"opposite", p}
 }
 
@@ -578,13 +568,13 @@ func hubOpposite(s *Site) hubVariant {
 // end of the tour as far as it can while being back at hub by T1, and they
 // meet there. left marks the candidates still unexplored (none: ok false).
 type hubPhase1 struct {
-	ra, rb *routeBuilder
+	ra, rb *engine.RouteBuilder
 	t      float64 // rendezvous time at hub
 	left   []bool
 	some   bool
 }
 
-func hubBudget(s *Site, cy *hubCycle, hub Point, fa int, T1 float64) (*hubPhase1, bool) {
+func hubBudget(s *engine.Site, cy *hubCycle, hub engine.Point, fa int, T1 float64) (*hubPhase1, bool) {
 	fb := 1 - fa
 	L := cy.Len()
 	a, _ := cy.reach(s, hub, s.Speed[fa]*T1, false)
@@ -592,18 +582,18 @@ func hubBudget(s *Site, cy *hubCycle, hub Point, fa int, T1 float64) (*hubPhase1
 	if a >= L-l {
 		return nil, false // the budget covers the whole tour: cover-then-meet does it
 	}
-	ph := &hubPhase1{ra: newRoute(s, fa), rb: newRoute(s, fb), left: make([]bool, s.N)}
-	ph.ra.cycleFwd(cy, a)
-	ph.rb.cycleBwd(cy, L-l)
-	ph.ra.to(hub)
-	ph.rb.to(hub)
-	ph.t = math.Max(ph.ra.t, ph.rb.t)
-	ph.ra.waitUntil(ph.t)
-	ph.rb.waitUntil(ph.t)
-	ph.ra.rendezvous()
-	ph.rb.rendezvous()
-	ta, err1 := s.Trajectory(ph.ra.route(), fa)
-	tb, err2 := s.Trajectory(ph.rb.route(), fb)
+	ph := &hubPhase1{ra: engine.NewRoute(s, fa), rb: engine.NewRoute(s, fb), left: make([]bool, s.N)}
+	cycleFwd(ph.ra, cy, a)
+	cycleBwd(ph.rb, cy, L-l)
+	ph.ra.To(hub)
+	ph.rb.To(hub)
+	ph.t = math.Max(ph.ra.Time(), ph.rb.Time())
+	ph.ra.WaitUntil(ph.t)
+	ph.rb.WaitUntil(ph.t)
+	ph.ra.Rendezvous()
+	ph.rb.Rendezvous()
+	ta, err1 := s.Trajectory(ph.ra.Route(), fa)
+	tb, err2 := s.Trajectory(ph.rb.Route(), fb)
 	if err1 != nil || err2 != nil {
 		return nil, false
 	}
@@ -618,7 +608,7 @@ func hubBudget(s *Site, cy *hubCycle, hub Point, fa int, T1 float64) (*hubPhase1
 
 // together lets both agents walk, from the hub, the depth-first tour of what
 // is left (farthest branch last) up to its last new candidate.
-func (ph *hubPhase1) together(s *Site, sub *hubView, cy2 *hubCycle, fa int, note string) *Plan {
+func (ph *hubPhase1) together(s *engine.Site, sub *hubView, cy2 *hubCycle, fa int, note string) *engine.Plan {
 	end := 0
 	seen := make([]bool, s.N)
 	for i, v := range cy2.w.Nodes {
@@ -627,12 +617,12 @@ func (ph *hubPhase1) together(s *Site, sub *hubView, cy2 *hubCycle, fa int, note
 			end = i
 		}
 	}
-	qa, qb := ph.ra.clone(), ph.rb.clone()
+	qa, qb := ph.ra.Clone(), ph.rb.Clone()
 	// by node index, not arclength: the last candidate is reached exactly
-	qa.toNodes(cy2.w.Nodes[:end+1])
-	qb.toNodes(cy2.w.Nodes[:end+1])
-	p := &Plan{Note: note + "both search the rest together"}
-	p.Routes[fa], p.Routes[1-fa] = qa.route(), qb.route()
+	qa.ToNodes(cy2.w.Nodes[:end+1])
+	qb.ToNodes(cy2.w.Nodes[:end+1])
+	p := &engine.Plan{Note: note + "both search the rest together"}
+	p.Routes[fa], p.Routes[1-fa] = qa.Route(), qb.Route()
 	return p
 }
 
@@ -672,26 +662,26 @@ func (vw *hubView) entry() []int {
 
 // along returns the point at distance x from the view's root along path
 // (a downward node path of the view starting next to the root).
-func (vw *hubView) along(path []int, x float64) Point {
+func (vw *hubView) along(path []int, x float64) engine.Point {
 	s := vw.s
 	for _, v := range path {
 		if vw.depth[v] < x {
 			continue
 		}
 		if p := vw.par[v]; p >= 0 {
-			return s.Canon(Point{From: v, To: int(p), Offset: vw.depth[v] - x})
+			return s.Canon(engine.Point{From: v, To: int(p), Offset: vw.depth[v] - x})
 		}
 		if vw.rootNode >= 0 {
-			return s.Canon(Point{From: v, To: vw.rootNode, Offset: vw.depth[v] - x})
+			return s.Canon(engine.Point{From: v, To: vw.rootNode, Offset: vw.depth[v] - x})
 		}
 		other := vw.root.To
 		if other == v {
 			other = vw.root.From
 		}
-		return s.Canon(Point{From: v, To: other, Offset: vw.depth[v] - x})
+		return s.Canon(engine.Point{From: v, To: other, Offset: vw.depth[v] - x})
 	}
 	if len(path) > 0 {
-		return At(path[len(path)-1])
+		return engine.At(path[len(path)-1])
 	}
 	return vw.root
 }
@@ -699,7 +689,7 @@ func (vw *hubView) along(path []int, x float64) Point {
 // hubPhases builds, from one arranged tour, the cover-then-meet plan and the
 // budget plans with each phase-2 rule, at the centroid and at hubs moved
 // from it towards what the centroid plan leaves unexplored.
-func hubPhases(s *Site, cy *hubCycle, c Point, fa int, T1 float64, name string, large bool) []hubVariant {
+func hubPhases(s *engine.Site, cy *hubCycle, c engine.Point, fa int, T1 float64, name string, large bool) []hubVariant {
 	fb := 1 - fa
 	var out []hubVariant
 	// cover-then-meet: cut the tour so both reach c at the same time after
@@ -707,18 +697,18 @@ func hubPhases(s *Site, cy *hubCycle, c Point, fa int, T1 float64, name string, 
 	// it wins least often)
 	if !large {
 		m, _ := cy.meetAtHub(s, c, s.Speed[fa], s.Speed[fb])
-		ra, rb := newRoute(s, fa), newRoute(s, fb)
-		ra.cycleFwd(cy, m)
-		rb.cycleBwd(cy, m)
-		ra.to(c)
-		rb.to(c)
-		t := math.Max(ra.t, rb.t)
-		ra.waitUntil(t)
-		rb.waitUntil(t)
-		ra.rendezvous()
-		rb.rendezvous()
-		p := &Plan{Note: fmt.Sprintf("hub: %s split the tour where both reach the centroid together at t=%.6g and meet there", name, t)}
-		p.Routes[fa], p.Routes[fb] = ra.route(), rb.route()
+		ra, rb := engine.NewRoute(s, fa), engine.NewRoute(s, fb)
+		cycleFwd(ra, cy, m)
+		cycleBwd(rb, cy, m)
+		ra.To(c)
+		rb.To(c)
+		t := math.Max(ra.Time(), rb.Time())
+		ra.WaitUntil(t)
+		rb.WaitUntil(t)
+		ra.Rendezvous()
+		rb.Rendezvous()
+		p := &engine.Plan{Note: fmt.Sprintf("hub: %s split the tour where both reach the centroid together at t=%.6g and meet there", name, t)}
+		p.Routes[fa], p.Routes[fb] = ra.Route(), rb.Route()
 		out = append(out, hubVariant{"cover-meet", p})
 	}
 	ph, ok := hubBudget(s, cy, c, fa, T1)
@@ -748,8 +738,8 @@ func hubPhases(s *Site, cy *hubCycle, c Point, fa int, T1 float64, name string, 
 		}
 		note := fmt.Sprintf("hub: %s, each back by t=%.6g at a point %.0f%% of the way from the centroid to what it would leave unexplored (rendezvous); then ", name, ph2.t, 100*f)
 		if !ph2.some {
-			p := &Plan{Note: note + "nothing is left"}
-			p.Routes[fa], p.Routes[fb] = ph2.ra.route(), ph2.rb.route()
+			p := &engine.Plan{Note: note + "nothing is left"}
+			p.Routes[fa], p.Routes[fb] = ph2.ra.Route(), ph2.rb.Route()
 			out = append(out, hubVariant{"shifted", p})
 			continue
 		}
@@ -760,9 +750,9 @@ func hubPhases(s *Site, cy *hubCycle, c Point, fa int, T1 float64, name string, 
 }
 
 // planHub builds the variants and keeps the best under the face-to-face model.
-func planHub(ctx context.Context, s *Site, m Model, _ Options) (*Plan, error) {
+func planHub(ctx context.Context, s *engine.Site, m engine.Model) (*engine.Plan, error) {
 	vs := hubVariants(s)
-	plans := make([]*Plan, len(vs))
+	plans := make([]*engine.Plan, len(vs))
 	for i, v := range vs {
 		plans[i] = v.plan
 	}

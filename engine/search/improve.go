@@ -1,4 +1,4 @@
-package engine
+package search
 
 // The improve planner: anytime local search from the best published plan.
 //
@@ -51,20 +51,17 @@ import (
 	"math"
 	"math/rand/v2"
 	"time"
+
+	"duosweep/engine"
+	"duosweep/engine/published"
 )
 
 // DefaultImproveBudget is the improve planner's time budget when neither
 // Options.Budget nor Options.Iterations is set.
 const DefaultImproveBudget = 5 * time.Second
 
-func init() {
-	register(PlannerInfo{Name: "improve", Models: Models, Search: true,
-		Summary: "anytime local search (simulated annealing) from the best published plan, every plan scored exactly; never worse than its start"},
-		planImprove)
-}
-
 type imItem struct {
-	P    Point
+	P    engine.Point
 	Wait float64 // extra wait after arriving (not for meetings)
 	Meet bool    // a meeting: the place is the rendezvous node of its ordinal
 	RV   bool    // a rendezvous mark without a paired meeting (kept from the start plan)
@@ -72,11 +69,11 @@ type imItem struct {
 
 type imState struct {
 	list [2][]imItem
-	meet []Point // rendezvous places, by ordinal
+	meet []engine.Point // rendezvous places, by ordinal
 }
 
 func (st *imState) clone() *imState {
-	c := &imState{meet: append([]Point(nil), st.meet...)}
+	c := &imState{meet: append([]engine.Point(nil), st.meet...)}
 	for a := 0; a < 2; a++ {
 		c.list[a] = append([]imItem(nil), st.list[a]...)
 	}
@@ -93,14 +90,14 @@ type ImproveResult struct {
 	Elapsed     time.Duration
 }
 
-func planImprove(ctx context.Context, s *Site, m Model, opt Options) (*Plan, error) {
+func planImprove(ctx context.Context, s *engine.Site, m engine.Model, opt Options) (*engine.Plan, error) {
 	p, _, err := Improve(ctx, s, m, opt)
 	return p, err
 }
 
 // Improve runs the improve planner from the best published plan.
-func Improve(ctx context.Context, s *Site, m Model, opt Options) (*Plan, ImproveResult, error) {
-	start, _, err := BestPlan(ctx, s, m)
+func Improve(ctx context.Context, s *engine.Site, m engine.Model, opt Options) (*engine.Plan, ImproveResult, error) {
+	start, _, err := published.BestPlan(ctx, s, m)
 	if err != nil {
 		return nil, ImproveResult{}, fmt.Errorf("engine: improve: %w", err)
 	}
@@ -109,10 +106,10 @@ func Improve(ctx context.Context, s *Site, m Model, opt Options) (*Plan, Improve
 
 // ImproveFrom runs the improve search from the given plan (which must be
 // valid on s). The result is never worse than start under m.
-func ImproveFrom(ctx context.Context, s *Site, m Model, start *Plan, opt Options) (*Plan, ImproveResult, error) {
+func ImproveFrom(ctx context.Context, s *engine.Site, m engine.Model, start *engine.Plan, opt Options) (*engine.Plan, ImproveResult, error) {
 	t0 := time.Now()
 	var res ImproveResult
-	r0, err := Evaluate(s, start, m)
+	r0, err := engine.Evaluate(s, start, m)
 	if err != nil {
 		return nil, res, fmt.Errorf("engine: improve: start plan: %w", err)
 	}
@@ -132,12 +129,12 @@ func ImproveFrom(ctx context.Context, s *Site, m Model, start *Plan, opt Options
 		im.maxItems = max(im.maxItems, len(cur.list[a])+8)
 	}
 	curP := im.toPlan(cur)
-	curR, err := Evaluate(s, curP, m)
+	curR, err := engine.Evaluate(s, curP, m)
 	res.Evaluations++
 	if err != nil || !curR.Complete {
 		// the conversion lost something (it should not): search from it anyway
 		curR = r0
-	} else if better(curR, bestR) {
+	} else if engine.Better(curR, bestR) {
 		bestP, bestR = curP, curR
 	}
 	if len(s.Candidates()) == 0 || math.IsInf(im.score(curR), 1) {
@@ -152,7 +149,7 @@ func ImproveFrom(ctx context.Context, s *Site, m Model, start *Plan, opt Options
 	if budget > 0 {
 		tourDeadline = t0.Add(budget / 4)
 	}
-	if tp, tr := im.tourPhase(ctx, tourIters, tourDeadline, &res); tr != nil && better(tr, bestR) {
+	if tp, tr := im.tourPhase(ctx, tourIters, tourDeadline, &res); tr != nil && engine.Better(tr, bestR) {
 		bestP, bestR = tp, tr
 		ts := im.fromPlan(tp)
 		if cr, ok := im.eval(ts, &res); ok {
@@ -241,7 +238,7 @@ func ImproveFrom(ctx context.Context, s *Site, m Model, start *Plan, opt Options
 			cur, curR, curScore = cand, cr, sc
 			res.Accepted++
 		}
-		if better(cr, bestR) {
+		if engine.Better(cr, bestR) {
 			bestP, bestR = im.toPlan(cand), cr
 			best = cand.clone()
 			sinceBest = 0
@@ -256,7 +253,7 @@ func ImproveFrom(ctx context.Context, s *Site, m Model, start *Plan, opt Options
 // tidy drops items from the end of the lists (at most 100 tries per list)
 // while the plan gets no worse: local search leaves detours that no exit
 // needs, and a shorter plan is easier to follow.
-func (im *improver) tidy(st *imState, p *Plan, r *Report, res *ImproveResult) (*Plan, *Report) {
+func (im *improver) tidy(st *imState, p *engine.Plan, r *engine.Report, res *ImproveResult) (*engine.Plan, *engine.Report) {
 	for a := 0; a < 2; a++ {
 		tries := 0
 		for i := len(st.list[a]) - 1; i >= 0 && tries < 100; i-- {
@@ -267,7 +264,7 @@ func (im *improver) tidy(st *imState, p *Plan, r *Report, res *ImproveResult) (*
 			c := st.clone()
 			c.list[a] = append(c.list[a][:i:i], c.list[a][i+1:]...)
 			cr, ok := im.eval(c, res)
-			if ok && !better(r, cr) && cr.Worst <= r.Worst {
+			if ok && !engine.Better(r, cr) && cr.Worst <= r.Worst {
 				st, p, r = c, im.toPlan(c), cr
 			}
 		}
@@ -275,15 +272,15 @@ func (im *improver) tidy(st *imState, p *Plan, r *Report, res *ImproveResult) (*
 	return p, r
 }
 
-func (im *improver) lastRes(res ImproveResult, bestR *Report, t0 time.Time) ImproveResult {
+func (im *improver) lastRes(res ImproveResult, bestR *engine.Report, t0 time.Time) ImproveResult {
 	res.Best = bestR.Worst
 	res.Improved = res.Best < res.Start*(1-1e-12)
 	res.Elapsed = time.Since(t0)
 	return res
 }
 
-func (im *improver) finish(start, bestP *Plan, bestR, r0 *Report, res ImproveResult, t0 time.Time) *Plan {
-	if !better(bestR, r0) {
+func (im *improver) finish(start, bestP *engine.Plan, bestR, r0 *engine.Report, res ImproveResult, t0 time.Time) *engine.Plan {
+	if !engine.Better(bestR, r0) {
 		p := clonePlan(start)
 		p.Note = fmt.Sprintf("improve found nothing better than the %s plan in %d iterations (%s)", start.Planner, res.Iterations, start.Note)
 		return p
@@ -295,8 +292,8 @@ func (im *improver) finish(start, bestP *Plan, bestR, r0 *Report, res ImproveRes
 }
 
 type improver struct {
-	s        *Site
-	m        Model
+	s        *engine.Site
+	m        engine.Model
 	rng      *rand.Rand
 	seed     int64
 	anchors  []int // start, candidates, branch nodes of the search tree
@@ -307,7 +304,7 @@ type improver struct {
 	branch    []int // search-tree nodes with two or more children
 }
 
-func newImprover(s *Site, m Model, seed int64) *improver {
+func newImprover(s *engine.Site, m engine.Model, seed int64) *improver {
 	im := &improver{s: s, m: m, seed: seed, rng: rand.New(rand.NewPCG(uint64(seed), 0x1a7e_acce_97))}
 	for v := 0; v < s.N; v++ {
 		if !s.InSearch[v] {
@@ -335,7 +332,7 @@ func newImprover(s *Site, m Model, seed int64) *improver {
 
 // score is what the acceptance rule compares: the worst case plus a small
 // share of the mean evacuation time.
-func (im *improver) score(r *Report) float64 {
+func (im *improver) score(r *engine.Report) float64 {
 	if !r.Complete || len(r.Exits) == 0 {
 		return math.Inf(1)
 	}
@@ -347,10 +344,10 @@ func (im *improver) score(r *Report) float64 {
 	return r.Worst + 0.02*sum/float64(len(r.Exits)) + 1e-4*(r.RouteLengths[0]/im.s.Speed[0]+r.RouteLengths[1]/im.s.Speed[1])
 }
 
-func (im *improver) eval(st *imState, res *ImproveResult) (*Report, bool) {
+func (im *improver) eval(st *imState, res *ImproveResult) (*engine.Report, bool) {
 	p := im.toPlan(st)
 	res.Evaluations++
-	r, err := Evaluate(im.s, p, im.m)
+	r, err := engine.Evaluate(im.s, p, im.m)
 	if err != nil || !r.Complete {
 		return nil, false
 	}
@@ -358,7 +355,7 @@ func (im *improver) eval(st *imState, res *ImproveResult) (*Report, bool) {
 }
 
 // fromPlan converts a plan into item lists.
-func (im *improver) fromPlan(p *Plan) *imState {
+func (im *improver) fromPlan(p *engine.Plan) *imState {
 	s := im.s
 	st := &imState{}
 	var rv [2][]int
@@ -369,7 +366,7 @@ func (im *improver) fromPlan(p *Plan) *imState {
 			}
 		}
 	}
-	paired := len(rv[0]) == len(rv[1]) && im.m == FaceToFace
+	paired := len(rv[0]) == len(rv[1]) && im.m.Rendezvous()
 	if paired {
 		for k := range rv[0] {
 			p0 := s.Canon(p.Routes[0].Waypoints[rv[0][k]].P)
@@ -387,7 +384,7 @@ func (im *improver) fromPlan(p *Plan) *imState {
 	}
 	for a := 0; a < 2; a++ {
 		wps := p.Routes[a].Waypoints
-		cur, t := At(s.Start), 0.0
+		cur, t := engine.At(s.Start), 0.0
 		var items []imItem
 		for i, w := range wps {
 			q := s.Canon(w.P)
@@ -397,12 +394,12 @@ func (im *improver) fromPlan(p *Plan) *imState {
 			if w.Rendezvous {
 				if paired {
 					it = imItem{Meet: true}
-				} else if im.m == FaceToFace {
+				} else if im.m.Rendezvous() {
 					it.RV = true
 				}
 			}
 			keep := true
-			if !it.Meet && !it.RV && wait <= tol(w.T) && i+1 < len(wps) && len(items) > 0 {
+			if !it.Meet && !it.RV && wait <= engine.Tol(w.T) && i+1 < len(wps) && len(items) > 0 {
 				prev := cur
 				next := s.Canon(wps[i+1].P)
 				if d := s.PointDist(prev, q) + s.PointDist(q, next) - s.PointDist(prev, next); d <= 1e-9*math.Max(1, s.PointDist(prev, next)) {
@@ -410,7 +407,7 @@ func (im *improver) fromPlan(p *Plan) *imState {
 				}
 			}
 			if keep {
-				if !it.Meet && wait <= tol(w.T) {
+				if !it.Meet && wait <= engine.Tol(w.T) {
 					it.Wait = 0
 				}
 				items = append(items, it)
@@ -428,16 +425,16 @@ func (im *improver) fromPlan(p *Plan) *imState {
 
 // toPlan turns item lists into routes with tight times; meetings wait for
 // the later agent.
-func (im *improver) toPlan(st *imState) *Plan {
+func (im *improver) toPlan(st *imState) *engine.Plan {
 	s := im.s
-	p := &Plan{Planner: "improve", Model: im.m}
-	var cur [2]Point
+	p := &engine.Plan{Planner: "improve", Model: im.m}
+	var cur [2]engine.Point
 	var t [2]float64
 	var idx [2]int
-	var wps [2][]Waypoint
-	cur[0], cur[1] = At(s.Start), At(s.Start)
-	wps[0] = make([]Waypoint, 0, len(st.list[0]))
-	wps[1] = make([]Waypoint, 0, len(st.list[1]))
+	var wps [2][]engine.Waypoint
+	cur[0], cur[1] = engine.At(s.Start), engine.At(s.Start)
+	wps[0] = make([]engine.Waypoint, 0, len(st.list[0]))
+	wps[1] = make([]engine.Waypoint, 0, len(st.list[1]))
 	for k := 0; ; k++ {
 		// walk each agent up to its next meeting (or the end)
 		for a := 0; a < 2; a++ {
@@ -447,7 +444,7 @@ func (im *improver) toPlan(st *imState) *Plan {
 				t[a] += s.PointDist(cur[a], it.P) / s.Speed[a]
 				t[a] += it.Wait
 				cur[a] = it.P
-				wps[a] = append(wps[a], Waypoint{P: it.P, T: t[a], Rendezvous: it.RV})
+				wps[a] = append(wps[a], engine.Waypoint{P: it.P, T: t[a], Rendezvous: it.RV})
 			}
 		}
 		if k >= len(st.meet) || idx[0] >= len(st.list[0]) || idx[1] >= len(st.list[1]) {
@@ -458,7 +455,7 @@ func (im *improver) toPlan(st *imState) *Plan {
 		for a := 0; a < 2; a++ {
 			idx[a]++
 			t[a], cur[a] = tm, R
-			wps[a] = append(wps[a], Waypoint{P: R, T: tm, Rendezvous: true})
+			wps[a] = append(wps[a], engine.Waypoint{P: R, T: tm, Rendezvous: true})
 		}
 	}
 	p.Routes[0].Waypoints, p.Routes[1].Waypoints = wps[0], wps[1]
@@ -477,14 +474,14 @@ func meetCount(l []imItem) int {
 }
 
 // mutate returns a changed copy of st, or nil when the drawn move does not apply.
-func (im *improver) mutate(st *imState, r *Report) *imState {
+func (im *improver) mutate(st *imState, r *engine.Report) *imState {
 	s := im.s
 	rng := im.rng
 	c := st.clone()
 	a := rng.IntN(2)
 	l := c.list[a]
 	moves := imMovesRadio
-	if im.m == FaceToFace {
+	if im.m.Rendezvous() {
 		moves = imMovesF2F
 	}
 	switch mv := moves[rng.IntN(len(moves))]; mv {
@@ -645,14 +642,14 @@ func (im *improver) mutate(st *imState, r *Report) *imState {
 			}
 			j = rng.IntN(hi + 1)
 		}
-		c.list[b] = append(dst[:j:j], append([]imItem{{P: At(x)}, it}, dst[j:]...)...)
-		if it.P == At(x) {
+		c.list[b] = append(dst[:j:j], append([]imItem{{P: engine.At(x)}, it}, dst[j:]...)...)
+		if it.P == engine.At(x) {
 			c.list[b] = append(c.list[b][:j+1], c.list[b][j+2:]...)
 		}
 	case 6: // insert a detour to an anchor (hedge / park)
 		v := im.anchors[rng.IntN(len(im.anchors))]
 		j := rng.IntN(len(l) + 1)
-		c.list[a] = append(l[:j:j], append([]imItem{{P: At(v)}}, l[j:]...)...)
+		c.list[a] = append(l[:j:j], append([]imItem{{P: engine.At(v)}}, l[j:]...)...)
 	case 7: // delete an item
 		if len(l) == 0 {
 			return nil
@@ -684,9 +681,9 @@ func (im *improver) mutate(st *imState, r *Report) *imState {
 		w := s.EW[s.Edge(p.From, p.To)]
 		switch rng.IntN(3) {
 		case 0:
-			l[k].P = At(p.From)
+			l[k].P = engine.At(p.From)
 		case 1:
-			l[k].P = At(p.To)
+			l[k].P = engine.At(p.To)
 		default:
 			p.Offset = math.Max(0, math.Min(w, p.Offset+(rng.Float64()-0.5)*w*0.5))
 			l[k].P = s.Canon(p)
@@ -703,17 +700,17 @@ func (im *improver) mutate(st *imState, r *Report) *imState {
 		if rng.IntN(2) == 0 {
 			v = im.anchors[rng.IntN(len(im.anchors))]
 		}
-		l[i] = imItem{P: At(v)}
+		l[i] = imItem{P: engine.At(v)}
 	case 10: // add a rendezvous
 		k := rng.IntN(len(c.meet) + 1)
-		R := At(im.anchors[rng.IntN(len(im.anchors))])
+		R := engine.At(im.anchors[rng.IntN(len(im.anchors))])
 		for b := 0; b < 2; b++ {
 			lo, hi := meetRange(c.list[b], k)
 			j := lo + rng.IntN(hi-lo+1)
 			lb := c.list[b]
 			c.list[b] = append(lb[:j:j], append([]imItem{{Meet: true}}, lb[j:]...)...)
 		}
-		c.meet = append(c.meet[:k:k], append([]Point{R}, c.meet[k:]...)...)
+		c.meet = append(c.meet[:k:k], append([]engine.Point{R}, c.meet[k:]...)...)
 	case 11: // drop a rendezvous
 		if len(c.meet) == 0 {
 			return nil
@@ -752,9 +749,9 @@ func (im *improver) mutate(st *imState, r *Report) *imState {
 			if len(nb) == 0 {
 				return nil
 			}
-			c.meet[k] = At(nb[rng.IntN(len(nb))])
+			c.meet[k] = engine.At(nb[rng.IntN(len(nb))])
 		} else {
-			c.meet[k] = At(im.anchors[rng.IntN(len(im.anchors))])
+			c.meet[k] = engine.At(im.anchors[rng.IntN(len(im.anchors))])
 		}
 	case 13: // move a meeting item within its list
 		n := meetCount(l)
@@ -785,7 +782,7 @@ func (im *improver) mutate(st *imState, r *Report) *imState {
 		}
 		R := l[i].P
 		if !R.IsNode() || mv == 15 {
-			R = At(im.anchors[rng.IntN(len(im.anchors))])
+			R = engine.At(im.anchors[rng.IntN(len(im.anchors))])
 		}
 		ta := im.itemTimes(c, a)
 		tb := im.itemTimes(c, 1-a)
@@ -810,7 +807,7 @@ func (im *improver) mutate(st *imState, r *Report) *imState {
 		}
 		c.list[a] = append(l[:i+1:i+1], append([]imItem{{Meet: true}}, l[i+1:]...)...)
 		c.list[1-a] = append(lb[:j:j], append([]imItem{{Meet: true}}, lb[j:]...)...)
-		c.meet = append(c.meet[:ka:ka], append([]Point{R}, c.meet[ka:]...)...)
+		c.meet = append(c.meet[:ka:ka], append([]engine.Point{R}, c.meet[ka:]...)...)
 	}
 	if meetCount(c.list[0]) != len(c.meet) || meetCount(c.list[1]) != len(c.meet) {
 		return nil
@@ -846,7 +843,7 @@ func meetRange(l []imItem, k int) (lo, hi int) {
 func (im *improver) itemTimes(st *imState, a int) []float64 {
 	s := im.s
 	out := make([]float64, len(st.list[a]))
-	cur, t, k := At(s.Start), 0.0, 0
+	cur, t, k := engine.At(s.Start), 0.0, 0
 	for i, it := range st.list[a] {
 		p := it.P
 		if it.Meet {
@@ -863,13 +860,13 @@ func (im *improver) itemTimes(st *imState, a int) []float64 {
 }
 
 // otherStarts converts the plans of the other published planners, for restarts.
-func (im *improver) otherStarts(ctx context.Context, start *Plan) []*imState {
+func (im *improver) otherStarts(ctx context.Context, start *engine.Plan) []*imState {
 	var out []*imState
-	for _, info := range PlannersFor(im.m) {
-		if info.Search || info.Name == start.Planner {
+	for _, info := range published.Planners() {
+		if !info.Supports(im.m) || info.Name == start.Planner {
 			continue
 		}
-		p, err := MakePlan(ctx, im.s, info.Name, im.m, Options{})
+		p, err := published.MakePlan(ctx, im.s, info.Name, im.m)
 		if err != nil {
 			continue
 		}

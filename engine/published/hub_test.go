@@ -1,4 +1,4 @@
-package engine
+package published
 
 import (
 	"context"
@@ -10,6 +10,9 @@ import (
 	"testing"
 
 	"github.com/stretchr/testify/require"
+
+	"duosweep/engine"
+	"duosweep/engine/internal/fixtures"
 )
 
 // hubFamilies are the tree shapes of the hub-rendezvous tests.
@@ -19,7 +22,7 @@ var hubFamilies = []string{"random", "star", "spider", "caterpillar", "binary", 
 // start at a random node, a random non-empty candidate subset, integer or
 // real lengths, and (when unequal) speeds 1 and a random other speed.
 // Invented test data.
-func hubTree(r *rand.Rand, family string, unequal bool) Scenario {
+func hubTree(r *rand.Rand, family string, unequal bool) engine.Scenario {
 	n := 2 + r.IntN(59)
 	parent := make([]int, n)
 	parent[0] = -1
@@ -77,7 +80,7 @@ func hubTree(r *rand.Rand, family string, unequal bool) Scenario {
 		}
 		return 0.1 + 9.9*r.Float64()
 	}
-	sc := Scenario{Name: family}
+	sc := engine.Scenario{Name: family}
 	start := r.IntN(n)
 	sc.Start = fmt.Sprintf("n%d", start)
 	density := 0.2 + 0.8*r.Float64()
@@ -85,16 +88,16 @@ func hubTree(r *rand.Rand, family string, unequal bool) Scenario {
 	for i := 0; i < n; i++ {
 		cand := i != start && r.Float64() < density
 		some = some || cand
-		sc.Nodes = append(sc.Nodes, Node{ID: fmt.Sprintf("n%d", i), Candidate: cand})
+		sc.Nodes = append(sc.Nodes, engine.Node{ID: fmt.Sprintf("n%d", i), Candidate: cand})
 		if i > 0 {
-			sc.Corridors = append(sc.Corridors, Corridor{From: fmt.Sprintf("n%d", parent[i]), To: fmt.Sprintf("n%d", i), Length: length()})
+			sc.Corridors = append(sc.Corridors, engine.Corridor{From: fmt.Sprintf("n%d", parent[i]), To: fmt.Sprintf("n%d", i), Length: length()})
 		}
 	}
 	if !some {
 		k := (start + 1 + r.IntN(n-1)) % n
 		sc.Nodes[k].Candidate = true
 	}
-	sc.Agents = DefaultAgents()
+	sc.Agents = engine.DefaultAgents()
 	if unequal {
 		sc.Agents[r.IntN(2)].Speed = 0.25 + 1.75*r.Float64()
 	}
@@ -108,7 +111,7 @@ type bruteTree struct {
 	search []bool // the smallest subtree holding the start and every candidate
 }
 
-func newBruteTree(t *testing.T, sc Scenario) *bruteTree {
+func newBruteTree(t *testing.T, sc engine.Scenario) *bruteTree {
 	n := len(sc.Nodes)
 	idx := map[string]int{}
 	for i, nd := range sc.Nodes {
@@ -183,7 +186,7 @@ func (bt *bruteTree) edgeLen(u, v int) float64 {
 }
 
 // distFrom returns the distances from point c to every node, by a plain graph search.
-func (bt *bruteTree) distFrom(s *Site, c Point) []float64 {
+func (bt *bruteTree) distFrom(s *engine.Site, c engine.Point) []float64 {
 	n := len(bt.adj)
 	d := make([]float64, n)
 	for i := range d {
@@ -215,17 +218,17 @@ func TestCentroidHandExamples(t *testing.T) {
 	// Derived by hand: star with leaves 1, 1, 3 from the centre (W = 5). The
 	// 3-leaf side weighs 3 − x at offset x from the centre, the rest 2 + x:
 	// balanced at x = 0.5.
-	s, err := NewSite(star(1, 1, 3))
+	s, err := engine.NewSite(fixtures.Star(1, 1, 3))
 	require.NoError(t, err)
 	c := s.Centroid()
 	l3, _ := s.Index("l3")
 	require.False(t, c.IsNode())
-	require.InDelta(t, 0.5, s.PointDist(At(s.Start), c), 1e-12)
+	require.InDelta(t, 0.5, s.PointDist(engine.At(s.Start), c), 1e-12)
 	require.InDelta(t, 2.5, s.NodeDist(c, l3), 1e-12)
 	// star with four unit leaves: the centre itself (each component weighs 1 ≤ 2).
-	s, err = NewSite(star(1, 1, 1, 1))
+	s, err = engine.NewSite(fixtures.Star(1, 1, 1, 1))
 	require.NoError(t, err)
-	require.Equal(t, At(s.Start), s.Centroid())
+	require.Equal(t, engine.At(s.Start), s.Centroid())
 }
 
 func TestHubHandExamples(t *testing.T) {
@@ -234,40 +237,40 @@ func TestHubHandExamples(t *testing.T) {
 	// parts split evenly (two leaves each): both are back at the centre at
 	// t = 4 = W, and an exit found earlier is reached by t = 4 + 1 = 5.
 	// MODEL.md §5: no plan does better than 5 here (LB3 = 5), so the plan is optimal.
-	s, err := NewSite(star(1, 1, 1, 1))
+	s, err := engine.NewSite(fixtures.Star(1, 1, 1, 1))
 	require.NoError(t, err)
-	p, err := MakePlan(ctx, s, "hub-rendezvous", FaceToFace, Options{})
+	p, err := MakePlan(ctx, s, "hub-rendezvous", engine.FaceToFace)
 	require.NoError(t, err)
-	r, err := Evaluate(s, p, FaceToFace)
+	r, err := engine.Evaluate(s, p, engine.FaceToFace)
 	require.NoError(t, err)
 	require.True(t, r.Complete)
 	require.InDelta(t, 5.0, r.Worst, 1e-9)
 	require.InDelta(t, 5.0, r.Bounds.LB, 1e-12) // LB3 proves 5 optimal (docs/lower-bound.md)
 	// Derived by hand: star 1, 1, 3 (W = LB = 5). Whatever the plan, the
 	// face-to-face worst is at most 1.5·W = 7.5 here (the assertion of MODEL.md §6).
-	s, err = NewSite(star(1, 1, 3))
+	s, err = engine.NewSite(fixtures.Star(1, 1, 3))
 	require.NoError(t, err)
-	p, err = MakePlan(ctx, s, "hub-rendezvous", FaceToFace, Options{})
+	p, err = MakePlan(ctx, s, "hub-rendezvous", engine.FaceToFace)
 	require.NoError(t, err)
-	r, err = Evaluate(s, p, FaceToFace)
+	r, err = engine.Evaluate(s, p, engine.FaceToFace)
 	require.NoError(t, err)
 	require.LessOrEqual(t, r.Worst, 7.5+1e-9)
 	require.GreaterOrEqual(t, r.Worst, 5.0-1e-9)
 	t.Logf("star 1,1,3: worst %g (%s)", r.Worst, p.Note)
 	// radio is refused: the planner is face to face only
-	_, err = MakePlan(ctx, s, "hub-rendezvous", Radio, Options{})
+	_, err = MakePlan(ctx, s, "hub-rendezvous", engine.Radio)
 	require.ErrorIs(t, err, ErrModelNotSupported)
 }
 
 func TestCentroidBruteForce(t *testing.T) {
-	r := newTestRand(424242)
+	r := fixtures.NewRand(424242)
 	for i := 0; i < 2000; i++ {
 		fam := hubFamilies[i%len(hubFamilies)]
 		sc := hubTree(r, fam, false)
-		s, err := NewSite(sc)
+		s, err := engine.NewSite(sc)
 		require.NoError(t, err)
 		bt := newBruteTree(t, sc)
-		W := ComputeBounds(s).W
+		W := engine.ComputeBounds(s).W
 		c := s.Centroid()
 		require.NoError(t, s.CheckPoint(c))
 		tol := 1e-9 * math.Max(1, W)
@@ -304,14 +307,14 @@ func TestCentroidBruteForce(t *testing.T) {
 // exactly into the forward agent's share, for some choice of forward agent:
 // the configuration docs/hub-rendezvous.md proves worst ≤ T1 + W/(2·slower speed).
 // Computed here independently of the planner (at most hubExactItems parts).
-func hubExactSplitExists(t *testing.T, s *Site, sc Scenario) bool {
+func hubExactSplitExists(t *testing.T, s *engine.Site, sc engine.Scenario) bool {
 	bt := newBruteTree(t, sc)
 	c := s.Centroid()
-	b := ComputeBounds(s)
-	d := bt.distFrom(s, At(s.Start))
+	b := engine.ComputeBounds(s)
+	d := bt.distFrom(s, engine.At(s.Start))
 	// path nodes: search nodes x with d(s,x) + d(x,c) = d(s,c)
 	dc := bt.distFrom(s, c)
-	dsc := s.PointDist(At(s.Start), c)
+	dsc := s.PointDist(engine.At(s.Start), c)
 	n := s.N
 	onPath := make([]bool, n)
 	for v := 0; v < n; v++ {
@@ -359,13 +362,13 @@ func hubExactSplitExists(t *testing.T, s *Site, sc Scenario) bool {
 	return false
 }
 
-func hubWinner(t *testing.T, s *Site) string {
-	var bestR *Report
+func hubWinner(t *testing.T, s *engine.Site) string {
+	var bestR *engine.Report
 	tag := ""
 	for _, v := range hubVariants(s) {
-		r, err := Evaluate(s, v.plan, FaceToFace)
+		r, err := engine.Evaluate(s, v.plan, engine.FaceToFace)
 		require.NoError(t, err)
-		if bestR == nil || better(r, bestR) {
+		if bestR == nil || engine.Better(r, bestR) {
 			bestR, tag = r, v.tag
 		}
 	}
@@ -388,20 +391,20 @@ func TestHubRendezvousRandomTrees(t *testing.T) {
 	for i := 0; i < 2000; i++ {
 		fam := hubFamilies[i%len(hubFamilies)]
 		seed := uint64(9000 + i)
-		r := newTestRand(seed)
+		r := fixtures.NewRand(seed)
 		unequal := i%5 == 4
 		sc := hubTree(r, fam, unequal)
-		s, err := NewSite(sc)
+		s, err := engine.NewSite(sc)
 		require.NoError(t, err)
-		b := ComputeBounds(s)
-		p, err := MakePlan(ctx, s, "hub-rendezvous", FaceToFace, Options{})
+		b := engine.ComputeBounds(s)
+		p, err := MakePlan(ctx, s, "hub-rendezvous", engine.FaceToFace)
 		require.NoError(t, err)
-		rep, err := Evaluate(s, p, FaceToFace)
+		rep, err := engine.Evaluate(s, p, engine.FaceToFace)
 		require.NoError(t, err, "tree %d (%s, seed %d): invalid plan", i, fam, seed)
 		require.True(t, rep.Complete, "tree %d (%s, seed %d): unvisited %v", i, fam, seed, rep.Unvisited)
 		require.GreaterOrEqual(t, rep.Worst, b.LB*(1-1e-9), "tree %d (%s, seed %d)", i, fam, seed)
 		// never worse than the plain face-to-face opposite tours it always includes
-		fb, err := Evaluate(s, hubOpposite(s).plan, FaceToFace)
+		fb, err := engine.Evaluate(s, hubOpposite(s).plan, engine.FaceToFace)
 		require.NoError(t, err)
 		require.LessOrEqual(t, rep.Worst, fb.Worst*(1+1e-9), "tree %d (%s, seed %d)", i, fam, seed)
 		wins[hubWinner(t, s)]++
@@ -457,15 +460,15 @@ func TestHubRendezvousRandomTrees(t *testing.T) {
 
 // hubBigTree is a seeded random recursive tree of n nodes (half of them
 // candidates, real lengths, equal speeds) for benchmarks. Invented data.
-func hubBigTree(n int, seed uint64) Scenario {
-	r := newTestRand(seed)
-	sc := Scenario{Name: "bench", Start: "n0", Agents: DefaultAgents()}
-	sc.Nodes = make([]Node, n)
-	sc.Corridors = make([]Corridor, 0, n-1)
+func hubBigTree(n int, seed uint64) engine.Scenario {
+	r := fixtures.NewRand(seed)
+	sc := engine.Scenario{Name: "bench", Start: "n0", Agents: engine.DefaultAgents()}
+	sc.Nodes = make([]engine.Node, n)
+	sc.Corridors = make([]engine.Corridor, 0, n-1)
 	for i := 0; i < n; i++ {
-		sc.Nodes[i] = Node{ID: fmt.Sprintf("n%d", i), Candidate: i > 0 && r.IntN(2) == 0}
+		sc.Nodes[i] = engine.Node{ID: fmt.Sprintf("n%d", i), Candidate: i > 0 && r.IntN(2) == 0}
 		if i > 0 {
-			sc.Corridors = append(sc.Corridors, Corridor{From: fmt.Sprintf("n%d", r.IntN(i)), To: sc.Nodes[i].ID, Length: 0.5 + 20*r.Float64()})
+			sc.Corridors = append(sc.Corridors, engine.Corridor{From: fmt.Sprintf("n%d", r.IntN(i)), To: sc.Nodes[i].ID, Length: 0.5 + 20*r.Float64()})
 		}
 	}
 	return sc
@@ -475,12 +478,12 @@ func hubBigTree(n int, seed uint64) Scenario {
 // exactly) on a 10^5-node random tree.
 func BenchmarkHub(b *testing.B) {
 	const n = 100_000
-	s, err := NewSite(hubBigTree(n, 77))
+	s, err := engine.NewSite(hubBigTree(n, 77))
 	require.NoError(b, err)
 	ctx := context.Background()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		if _, err := MakePlan(ctx, s, "hub-rendezvous", FaceToFace, Options{}); err != nil {
+		if _, err := MakePlan(ctx, s, "hub-rendezvous", engine.FaceToFace); err != nil {
 			b.Fatal(err)
 		}
 	}

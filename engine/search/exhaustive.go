@@ -1,4 +1,4 @@
-package engine
+package search
 
 // The exhaustive planner: branch and bound over the target-sequence class.
 //
@@ -63,6 +63,9 @@ import (
 	"math"
 	"sort"
 	"time"
+
+	"duosweep/engine"
+	"duosweep/engine/published"
 )
 
 // Limits of the exhaustive planner: it refuses larger sites up front.
@@ -87,8 +90,8 @@ const (
 )
 
 // ClassName returns the name of the exhaustive planner's plan class under m.
-func ClassName(m Model) string {
-	if m == FaceToFace {
+func ClassName(m engine.Model) string {
+	if m.Rendezvous() {
 		return TargetSequenceRVClass
 	}
 	return TargetSequenceClass
@@ -96,12 +99,6 @@ func ClassName(m Model) string {
 
 // ErrSiteTooLarge is returned (wrapped) when a site exceeds the exhaustive planner's limits.
 var ErrSiteTooLarge = fmt.Errorf("engine: exhaustive: site too large")
-
-func init() {
-	register(PlannerInfo{Name: "exhaustive", Models: Models, Search: true,
-		Summary: fmt.Sprintf("branch and bound over target-sequence plans (face to face: with node rendezvous); proves the best plan of that class; sites of at most %d candidates and %d search-tree nodes", ExhaustiveMaxCandidates, ExhaustiveMaxNodes)},
-		planExhaustive)
-}
 
 // ExhaustiveResult is what the exhaustive search reports besides the plan.
 type ExhaustiveResult struct {
@@ -118,8 +115,8 @@ const (
 )
 
 type exAgent struct {
-	tr     *Trajectory
-	wps    []Waypoint
+	tr     *engine.Trajectory
+	wps    []engine.Waypoint
 	pos    int     // node at the end of the committed route
 	T      float64 // time at the end of the committed route
 	status int
@@ -165,8 +162,8 @@ type fvUndo struct {
 
 type exSearch struct {
 	ctx      context.Context
-	s        *Site
-	m        Model
+	s        *engine.Site
+	m        engine.Model
 	ag       [2]exAgent
 	fv       [2][]float64
 	fvLog    []fvUndo
@@ -178,7 +175,7 @@ type exSearch struct {
 	evac     []float64
 	setLog   []int
 	inc      float64
-	incPlan  *Plan
+	incPlan  *engine.Plan
 	incFrom  string
 	memo     map[exKey][]exPair
 	memoN    int
@@ -219,7 +216,7 @@ const exMemoCap = 1_500_000 // about 300 MB at most
 
 // CheckExhaustiveSize returns an error wrapping ErrSiteTooLarge when the
 // site exceeds the exhaustive planner's limits.
-func CheckExhaustiveSize(s *Site) error {
+func CheckExhaustiveSize(s *engine.Site) error {
 	nc, ns := 0, 0
 	for v := 0; v < s.N; v++ {
 		if s.Candidate[v] {
@@ -238,7 +235,7 @@ func CheckExhaustiveSize(s *Site) error {
 	return nil
 }
 
-func planExhaustive(ctx context.Context, s *Site, m Model, opt Options) (*Plan, error) {
+func planExhaustive(ctx context.Context, s *engine.Site, m engine.Model, opt Options) (*engine.Plan, error) {
 	p, _, err := Exhaustive(ctx, s, m, opt)
 	return p, err
 }
@@ -248,7 +245,7 @@ func planExhaustive(ctx context.Context, s *Site, m Model, opt Options) (*Plan, 
 // limit Options.Budget, default 10 s, or ctx cancelled) returns the best plan
 // so far, not proven. It refuses sites over the limits with an error
 // wrapping ErrSiteTooLarge.
-func Exhaustive(ctx context.Context, s *Site, m Model, opt Options) (*Plan, ExhaustiveResult, error) {
+func Exhaustive(ctx context.Context, s *engine.Site, m engine.Model, opt Options) (*engine.Plan, ExhaustiveResult, error) {
 	return exhaustive(ctx, s, m, opt, exConfig{})
 }
 
@@ -260,10 +257,10 @@ func Exhaustive(ctx context.Context, s *Site, m Model, opt Options) (*Plan, Exha
 // just made the same run pass it in).
 type exConfig struct {
 	noPrune, noSeed bool
-	improved        *Plan
+	improved        *engine.Plan
 }
 
-func exhaustive(ctx context.Context, s *Site, m Model, opt Options, cfg exConfig) (*Plan, ExhaustiveResult, error) {
+func exhaustive(ctx context.Context, s *engine.Site, m engine.Model, opt Options, cfg exConfig) (*engine.Plan, ExhaustiveResult, error) {
 	res := ExhaustiveResult{Class: ClassName(m)}
 	if err := CheckExhaustiveSize(s); err != nil {
 		return nil, res, err
@@ -272,7 +269,7 @@ func exhaustive(ctx context.Context, s *Site, m Model, opt Options, cfg exConfig
 	if budget <= 0 {
 		budget = DefaultExhaustiveBudget
 	}
-	seed, seedR, err := BestPlan(ctx, s, m)
+	seed, seedR, err := published.BestPlan(ctx, s, m)
 	if err != nil {
 		return nil, res, fmt.Errorf("engine: exhaustive: %w", err)
 	}
@@ -287,7 +284,7 @@ func exhaustive(ctx context.Context, s *Site, m Model, opt Options, cfg exConfig
 			ip, ir, err = ImproveFrom(ctx, s, m, seed, Options{Iterations: ExhaustiveImproveIterations, Seed: opt.Seed})
 		}
 		if err == nil && ir.Improved {
-			if r, err := Evaluate(s, ip, m); err == nil && r.Worst < x.inc*(1-1e-12) {
+			if r, err := engine.Evaluate(s, ip, m); err == nil && r.Worst < x.inc*(1-1e-12) {
 				x.inc, x.incPlan, x.incFrom = r.Worst, ip, "improve"
 				ip.Planner = "improve"
 			}
@@ -307,7 +304,7 @@ func exhaustive(ctx context.Context, s *Site, m Model, opt Options, cfg exConfig
 	res.Proven = !x.stopped
 	res.Incumbent = x.incFrom
 	p := clonePlan(x.incPlan)
-	bound := math.Max(ComputeBounds(s).LB, 0)
+	bound := math.Max(engine.ComputeBounds(s).LB, 0)
 	switch {
 	case !res.Proven:
 		p.Note = fmt.Sprintf("NOT proven: the search was stopped (%s) after %d states; best plan found so far, worst %.6g (lower bound %.6g)", x.stopWhy, x.states, x.inc, bound)
@@ -327,10 +324,10 @@ func exhaustive(ctx context.Context, s *Site, m Model, opt Options, cfg exConfig
 	return p, res, nil
 }
 
-func clonePlan(p *Plan) *Plan {
+func clonePlan(p *engine.Plan) *engine.Plan {
 	q := *p
 	for a := 0; a < 2; a++ {
-		q.Routes[a].Waypoints = append([]Waypoint(nil), p.Routes[a].Waypoints...)
+		q.Routes[a].Waypoints = append([]engine.Waypoint(nil), p.Routes[a].Waypoints...)
 	}
 	return &q
 }
@@ -379,7 +376,7 @@ func (x *exSearch) init() {
 			x.fv[a][v] = math.Inf(1)
 		}
 		x.fv[a][s.Start] = 0
-		x.ag[a] = exAgent{tr: &Trajectory{site: s, Agent: a, start: At(s.Start)}, pos: s.Start, from: s.Start, rv: -1}
+		x.ag[a] = exAgent{tr: engine.NewTrajectory(s, a, engine.At(s.Start)), pos: s.Start, from: s.Start, rv: -1}
 	}
 }
 
@@ -414,7 +411,7 @@ func (x *exSearch) walkTo(a, v int) {
 	}
 	k := len(g.tr.Segs)
 	d := s.Dist(g.pos, v)
-	g.tr.walk(At(g.pos), At(v), g.T, s.Speed[a])
+	g.tr.Walk(engine.At(g.pos), engine.At(v), g.T, s.Speed[a])
 	g.tr.Length += d
 	g.from = g.pos
 	g.pos = v
@@ -469,7 +466,7 @@ func (x *exSearch) teff(a int) float64 {
 	return x.ag[a].T
 }
 
-func (x *exSearch) trs() [2]*Trajectory { return [2]*Trajectory{x.ag[0].tr, x.ag[1].tr} }
+func (x *exSearch) trs() [2]*engine.Trajectory { return [2]*engine.Trajectory{x.ag[0].tr, x.ag[1].tr} }
 
 func (x *exSearch) checkStop() {
 	x.states++
@@ -523,13 +520,13 @@ func (x *exSearch) meet() {
 		sn[a] = x.snap(a)
 		g := &x.ag[a]
 		if tm > g.T {
-			g.tr.addWait(At(R), g.T, tm)
+			g.tr.AddWait(engine.At(R), g.T, tm)
 		}
 		g.T, g.tr.End = tm, tm
 		g.tr.RVTime = append(g.tr.RVTime, tm)
-		g.tr.RVAt = append(g.tr.RVAt, At(R))
+		g.tr.RVAt = append(g.tr.RVAt, engine.At(R))
 		g.tr.RVSegs = append(g.tr.RVSegs, len(g.tr.Segs))
-		g.wps = append(g.wps, Waypoint{P: At(R), T: tm, Rendezvous: true})
+		g.wps = append(g.wps, engine.Waypoint{P: engine.At(R), T: tm, Rendezvous: true})
 		g.status, g.rv, g.from = agActive, -1, R
 		x.touch(a)
 	}
@@ -554,22 +551,22 @@ func (x *exSearch) leaf() {
 		if math.IsInf(x.firstVisit(v), 1) {
 			return
 		}
-		ex := exitFull(x.s, trs, x.fv, v, x.m)
+		ex := engine.ExitFull(x.s, trs, x.fv, v, x.m)
 		worst = math.Max(worst, ex.EvacAt)
 		if worst >= x.inc*(1-1e-12) {
 			return
 		}
 	}
-	p := &Plan{Planner: "exhaustive", Model: x.m}
+	p := &engine.Plan{Planner: "exhaustive", Model: x.m}
 	for a := 0; a < 2; a++ {
 		g := &x.ag[a]
-		wps := append([]Waypoint(nil), g.wps...)
+		wps := append([]engine.Waypoint(nil), g.wps...)
 		if g.status == agWaiting {
-			wps = append(wps, Waypoint{P: At(g.pos), T: g.T})
+			wps = append(wps, engine.Waypoint{P: engine.At(g.pos), T: g.T})
 		}
-		p.Routes[a] = Route{Waypoints: wps}
+		p.Routes[a] = engine.Route{Waypoints: wps}
 	}
-	r, err := Evaluate(x.s, p, x.m)
+	r, err := engine.Evaluate(x.s, p, x.m)
 	if err != nil || !r.Complete {
 		return
 	}
@@ -598,7 +595,7 @@ func (x *exSearch) settle(T float64) (maxSettled, pendLB float64, pending bool) 
 		if t1 < t0 {
 			f = 1
 		}
-		if math.Abs(t0-t1) <= tol(t) {
+		if math.Abs(t0-t1) <= engine.Tol(t) {
 			x.settled[c], x.evac[c] = true, t
 			x.setLog = append(x.setLog, c)
 			maxSettled = math.Max(maxSettled, t)
@@ -620,14 +617,14 @@ func (x *exSearch) settle(T float64) (maxSettled, pendLB float64, pending bool) 
 			pending = pending || t <= T
 			continue
 		}
-		ex := exitFull(s, trs, x.fv, v, x.m)
-		ok := x.m == Radio || math.IsInf(tp, 1)
+		ex := engine.ExitFull(s, trs, x.fv, v, x.m)
+		ok := x.m.Instant() || math.IsInf(tp, 1)
 		if !ok {
 			tr := trs[p]
-			if k := sort.SearchFloat64s(tr.RVTime, t-tol(t)); k < len(tr.RVTime) {
+			if k := sort.SearchFloat64s(tr.RVTime, t-engine.Tol(t)); k < len(tr.RVTime) {
 				ok = true
 			} else if s.Speed[p] <= s.Speed[f] {
-				ok = ex.MeetAt <= tp+tol(tp)
+				ok = ex.MeetAt <= tp+engine.Tol(tp)
 			} else {
 				ok = ex.EvacAt <= tp
 			}
@@ -717,7 +714,7 @@ func (x *exSearch) decide(m int) {
 	og := &x.ag[o]
 	po := og.tr.PositionAt(T)
 	if og.status == agStopped && T >= og.T {
-		po = At(og.pos)
+		po = engine.At(og.pos)
 	}
 	unv := x.allMask &^ vis
 	for c, v := range x.cand {
@@ -865,7 +862,7 @@ func (x *exSearch) decide(m int) {
 			byDist(parks)
 			opts = append(opts, parks...)
 		}
-		if x.m == FaceToFace && og.status == agActive && vis != x.lastMeet {
+		if x.m.Rendezvous() && og.status == agActive && vis != x.lastMeet {
 			// with equal speeds a rendezvous outside the smallest subtree T*
 			// holding the unvisited and pending candidates and both leg ends
 			// is dominated by the point where the paths to it leave T*.
@@ -915,11 +912,11 @@ func (x *exSearch) decide(m int) {
 		switch op.kind {
 		case 0:
 			x.walkTo(m, op.v)
-			g.wps = append(g.wps, Waypoint{P: At(op.v), T: g.T})
+			g.wps = append(g.wps, engine.Waypoint{P: engine.At(op.v), T: g.T})
 		case 1:
 			x.walkTo(m, op.v)
 			if op.v != sn.pos {
-				g.wps = append(g.wps, Waypoint{P: At(op.v), T: g.T})
+				g.wps = append(g.wps, engine.Waypoint{P: engine.At(op.v), T: g.T})
 			}
 			g.status = agStopped
 		case 2, 3:

@@ -1,83 +1,51 @@
-package engine
+package published
 
 import (
 	"context"
 	"fmt"
-	"math"
+
+	"duosweep/engine"
 )
-
-func init() {
-	register(PlannerInfo{Name: "together", Models: Models,
-		Summary: "both walk one depth-first tour together, the branch with the farthest junction last (worst ≤ 2W − L)"},
-		planTogether)
-	// Both agents walk one walk from the start that reaches every candidate,
-	// so the last candidate is first reached after at least 2W − L (the
-	// shortest such walk ends at the farthest candidate), at the faster speed.
-	floors["together"] = func(s *Site) float64 {
-		b := ComputeBounds(s)
-		return (2*b.W - b.L) / math.Max(s.Speed[0], s.Speed[1])
-	}
-	register(PlannerInfo{Name: "opposite-tours", Models: Models,
-		Summary: "one walks a depth-first tour forwards, the other the same tour backwards; they meet at its midpoint (radio: worst ≤ 1.5·W; face to face, with a rendezvous at the midpoint: worst ≤ 2W)"},
-		planOpposite)
-	register(PlannerInfo{Name: "spine-split", Models: []Model{Radio},
-		Summary: "the walk down the path to the farthest junction is cut where half the side work is done; one takes the first part, the other the rest (worst ≤ W + L2 ≤ 4/3 of the lower bound)"},
-		planSpine)
-}
-
-func (o ChildOrder) String() string {
-	switch o {
-	case OrderIndex:
-		return "corridor order"
-	case OrderDeepLast:
-		return "farthest branch last"
-	case OrderDeepFirst:
-		return "farthest branch first"
-	case OrderLightFirst:
-		return "lightest branch first"
-	}
-	return fmt.Sprintf("ChildOrder(%d)", int(o))
-}
 
 // LargeSite is the node count above which each published planner builds
 // only its canonical variant (the one its guarantee is proven for) instead of
 // trying several, so that planning stays near-linear on huge sites.
 const LargeSite = 20000
 
-// orders returns the child orders a planner tries on s.
-func (s *Site) orders(all []ChildOrder) []ChildOrder {
+// Orders returns the child orders a planner tries on s.
+func Orders(s *engine.Site, all []engine.ChildOrder) []engine.ChildOrder {
 	if s.N > LargeSite {
-		return []ChildOrder{OrderDeepLast}
+		return []engine.ChildOrder{engine.OrderDeepLast}
 	}
 	return all
 }
 
 // pickBest evaluates every plan under m and returns the best (ties: the
 // first). The winner keeps its report so that callers need not evaluate it again.
-func pickBest(ctx context.Context, s *Site, m Model, plans []*Plan) (*Plan, error) {
-	var best *Plan
-	var bestR *Report
+func pickBest(ctx context.Context, s *engine.Site, m engine.Model, plans []*engine.Plan) (*engine.Plan, error) {
+	var best *engine.Plan
+	var bestR *engine.Report
 	for _, p := range plans {
 		if err := ctx.Err(); err != nil {
 			return nil, err
 		}
-		r, err := Evaluate(s, p, m)
+		r, err := engine.Evaluate(s, p, m)
 		if err != nil {
 			return nil, fmt.Errorf("engine: internal planner error: %w", err)
 		}
-		if bestR == nil || better(r, bestR) {
+		if bestR == nil || engine.Better(r, bestR) {
 			best, bestR = p, r
 		}
 	}
 	if best != nil {
-		best.cached = bestR
+		best.SetEvaluated(bestR)
 	}
 	return best, nil
 }
 
 // lastNewCandidate returns the walk index at which the last candidate is
 // first reached (0 when there are none).
-func lastNewCandidate(s *Site, w *Walk) int {
+func lastNewCandidate(s *engine.Site, w *engine.Walk) int {
 	seen := make([]bool, s.N)
 	last := 0
 	for i, v := range w.Nodes {
@@ -91,16 +59,16 @@ func lastNewCandidate(s *Site, w *Walk) int {
 
 // planTogether: both agents walk the same depth-first tour, stopping when
 // the last candidate is reached. Tries every child order.
-func planTogether(ctx context.Context, s *Site, m Model, _ Options) (*Plan, error) {
-	var plans []*Plan
-	for _, o := range s.orders(AllOrders) {
+func planTogether(ctx context.Context, s *engine.Site, m engine.Model) (*engine.Plan, error) {
+	var plans []*engine.Plan
+	for _, o := range Orders(s, engine.AllOrders) {
 		w := s.Tour(o)
 		end := lastNewCandidate(s, w)
-		p := &Plan{Note: "one depth-first tour walked together, " + o.String()}
+		p := &engine.Plan{Note: "one depth-first tour walked together, " + o.String()}
 		for a := 0; a < 2; a++ {
-			b := newRoute(s, a)
-			b.toNodes(w.Nodes[:end+1])
-			p.Routes[a] = b.route()
+			b := engine.NewRoute(s, a)
+			b.ToNodes(w.Nodes[:end+1])
+			p.Routes[a] = b.Route()
 		}
 		plans = append(plans, p)
 	}
@@ -111,22 +79,22 @@ func planTogether(ctx context.Context, s *Site, m Model, _ Options) (*Plan, erro
 // stop where they meet (at time 2W/(s0+s1), the midpoint with equal speeds),
 // a rendezvous in the face-to-face model. Tries every child order and, with
 // unequal speeds, both directions.
-func planOpposite(ctx context.Context, s *Site, m Model, _ Options) (*Plan, error) {
-	var plans []*Plan
+func planOpposite(ctx context.Context, s *engine.Site, m engine.Model) (*engine.Plan, error) {
+	var plans []*engine.Plan
 	dirs := []bool{false}
 	if s.Speed[0] != s.Speed[1] {
 		dirs = append(dirs, true)
 	}
-	for _, o := range s.orders(AllOrders) {
+	for _, o := range Orders(s, engine.AllOrders) {
 		w := s.Tour(o)
 		for _, swap := range dirs {
 			fw, bw := 0, 1
 			if swap {
 				fw, bw = 1, 0
 			}
-			p := &Plan{Note: fmt.Sprintf("%s walks the tour forwards, %s backwards, %s", s.Names[fw], s.Names[bw], o)}
-			p.Routes = oppositeRoutes(s, m, w, fw, balancedCut(s, w, fw))
-			if m == FaceToFace {
+			p := &engine.Plan{Note: fmt.Sprintf("%s walks the tour forwards, %s backwards, %s", s.Names[fw], s.Names[bw], o)}
+			p.Routes = OppositeRoutes(s, m, w, fw, BalancedCut(s, w, fw))
+			if m.Rendezvous() {
 				p.Note += "; rendezvous where they meet"
 			}
 			plans = append(plans, p)
@@ -135,37 +103,37 @@ func planOpposite(ctx context.Context, s *Site, m Model, _ Options) (*Plan, erro
 	return pickBest(ctx, s, m, plans)
 }
 
-// balancedCut is the arclength along the closed tour w where the agent fw
+// BalancedCut is the arclength along the closed tour w where the agent fw
 // walking forwards and the partner walking backwards arrive together.
-func balancedCut(s *Site, w *Walk, fw int) float64 {
+func BalancedCut(s *engine.Site, w *engine.Walk, fw int) float64 {
 	return w.Len() * s.Speed[fw] / (s.Speed[0] + s.Speed[1])
 }
 
-// oppositeRoutes returns the routes of agent fw walking the closed tour w
+// OppositeRoutes returns the routes of agent fw walking the closed tour w
 // forwards up to arclength cut and of the partner walking it backwards down
 // to cut; face to face both mark a rendezvous there.
-func oppositeRoutes(s *Site, m Model, w *Walk, fw int, cut float64) [2]Route {
-	f, b := newRoute(s, fw), newRoute(s, 1-fw)
-	f.walkPrefix(s, w, cut)
-	b.walkSuffixReversed(s, w, cut)
-	if m == FaceToFace {
-		f.rendezvous()
-		b.rendezvous()
+func OppositeRoutes(s *engine.Site, m engine.Model, w *engine.Walk, fw int, cut float64) [2]engine.Route {
+	f, b := engine.NewRoute(s, fw), engine.NewRoute(s, 1-fw)
+	f.WalkPrefix(s, w, cut)
+	b.WalkSuffixReversed(s, w, cut)
+	if m.Rendezvous() {
+		f.Rendezvous()
+		b.Rendezvous()
 	}
-	var r [2]Route
-	r[fw], r[1-fw] = f.route(), b.route()
+	var r [2]engine.Route
+	r[fw], r[1-fw] = f.Route(), b.Route()
 	return r
 }
 
 // spineWalk is the walk down P that explores every side subtree as it
 // passes, with the side work done at each walk node.
 type spineWalk struct {
-	Walk
+	engine.Walk
 	side []float64 // side work (length walked off P) up to each node
 	onP  []bool
 }
 
-func (s *Site) spineWalk(o ChildOrder) *spineWalk {
+func newSpineWalk(s *engine.Site, o engine.ChildOrder) *spineWalk {
 	P := s.PathToFar()
 	onP := make([]bool, s.N)
 	for _, v := range P {
@@ -173,8 +141,8 @@ func (s *Site) spineWalk(o ChildOrder) *spineWalk {
 	}
 	sw := &spineWalk{onP: onP}
 	for _, v := range P {
-		sw.push(s, v)
-		s.appendTour(&sw.Walk, v, o, func(c int) bool { return onP[c] })
+		sw.Push(s, v)
+		s.AppendTour(&sw.Walk, v, o, func(c int) bool { return onP[c] })
 	}
 	sw.side = make([]float64, len(sw.Nodes))
 	for k := 1; k < len(sw.Nodes); k++ {
@@ -202,15 +170,15 @@ func (sw *spineWalk) cutAt(target float64) float64 {
 // straight back to P and down to its far end; the second goes straight to
 // the cut and walks the rest. Tries child orders, the half cut and the
 // speed-weighted cut, and both role assignments.
-func planSpine(ctx context.Context, s *Site, m Model, _ Options) (*Plan, error) {
-	b := ComputeBounds(s)
-	var plans []*Plan
+func planSpine(ctx context.Context, s *engine.Site, m engine.Model) (*engine.Plan, error) {
+	b := engine.ComputeBounds(s)
+	var plans []*engine.Plan
 	shares := []float64{0.5}
 	if s.Speed[0] != s.Speed[1] {
 		shares = append(shares, s.Speed[0]/(s.Speed[0]+s.Speed[1]), s.Speed[1]/(s.Speed[0]+s.Speed[1]))
 	}
-	for _, o := range s.orders([]ChildOrder{OrderDeepLast, OrderIndex, OrderDeepFirst}) {
-		sw := s.spineWalk(o)
+	for _, o := range Orders(s, []engine.ChildOrder{engine.OrderDeepLast, engine.OrderIndex, engine.OrderDeepFirst}) {
+		sw := newSpineWalk(s, o)
 		total := sw.side[len(sw.side)-1]
 		for _, share := range shares {
 			cut := sw.cutAt(share * total)
@@ -225,16 +193,16 @@ func planSpine(ctx context.Context, s *Site, m Model, _ Options) (*Plan, error) 
 				roles = roles[:1] // the mirror plan is the same plan with the names swapped
 			}
 			for _, first := range roles {
-				p := &Plan{Note: fmt.Sprintf("%s takes the spine walk up to %.0f%% of the side work, %s the rest, %s",
+				p := &engine.Plan{Note: fmt.Sprintf("%s takes the spine walk up to %.0f%% of the side work, %s the rest, %s",
 					s.Names[first], share*100, s.Names[1-first], o)}
-				ra, rb := newRoute(s, first), newRoute(s, 1-first)
-				ra.toNodes(sw.Nodes[:ci+1])
-				ra.to(cp)
-				ra.to(At(attach))
-				ra.to(At(b.Far))
-				rb.to(cp)
-				rb.toNodes(sw.Nodes[ci+1:])
-				p.Routes[first], p.Routes[1-first] = ra.route(), rb.route()
+				ra, rb := engine.NewRoute(s, first), engine.NewRoute(s, 1-first)
+				ra.ToNodes(sw.Nodes[:ci+1])
+				ra.To(cp)
+				ra.To(engine.At(attach))
+				ra.To(engine.At(b.Far))
+				rb.To(cp)
+				rb.ToNodes(sw.Nodes[ci+1:])
+				p.Routes[first], p.Routes[1-first] = ra.Route(), rb.Route()
 				plans = append(plans, p)
 			}
 		}
