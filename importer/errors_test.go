@@ -97,6 +97,12 @@ func TestGeoJSONOptions(t *testing.T) {
 		t.Fatalf("kept %+v, dropped %d/%d", r.Scenario.Corridors, r.DroppedNodes, r.DroppedCorridors)
 	}
 	mustContain(t, strings.Join(r.Messages, "\n"), "kept the largest of 2 pieces", "dropped 2 junctions and 1 corridors")
+	// --start may name a unique label
+	labelled := fcOf(okLine, `{"type":"Feature","properties":{"id":"p","label":"Portal"},"geometry":{"type":"Point","coordinates":[0.001,0]}}`)
+	r, err = ReadGeoJSON([]byte(labelled), Options{Start: "Portal"})
+	if err != nil || r.Scenario.Start != "p" {
+		t.Fatalf("start by label: %v", err)
+	}
 	// --start-near picks the nearest junction
 	r, err = ReadGeoJSON([]byte(fcOf(okLine)), Options{StartNear: &[2]float64{0.0009, 0.0001}})
 	if err != nil {

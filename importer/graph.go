@@ -206,7 +206,19 @@ func pickStart(net *network, opt Options) (int, error) {
 				return i, nil
 			}
 		}
-		return -1, errAt("start", "%q: unknown start name: no Point, table row or junction has this id", opt.Start)
+		byLabel := -1
+		for i, n := range net.nodes {
+			if n.label == opt.Start {
+				if byLabel >= 0 {
+					return -1, errAt("start", "%q: two nodes have this label (%q and %q): name the start by id", opt.Start, net.nodes[byLabel].id, n.id)
+				}
+				byLabel = i
+			}
+		}
+		if byLabel >= 0 {
+			return byLabel, nil
+		}
+		return -1, errAt("start", "%q: unknown start name: no Point, table row or junction has this id or label", opt.Start)
 	case opt.StartNear != nil:
 		p := *opt.StartNear
 		if !finite(p[0]) || !finite(p[1]) {
@@ -323,7 +335,11 @@ func keepPieces(net *network, start int, opt Options, res *Result) (int, error) 
 		return strings.Join(parts, "; ")
 	}
 	if !opt.Largest {
-		return -1, errAt("", "the network is in %d unconnected pieces: %s. Join them (a larger --snap may), or keep the largest with --largest", len(pieces), list(order))
+		hint := ""
+		if net.geo != nil {
+			hint = " (a larger --snap may)"
+		}
+		return -1, errAt("", "the network is in %d unconnected pieces: %s. Join them%s, or keep the largest with --largest", len(pieces), list(order), hint)
 	}
 	keep := order[0]
 	if comp[start] != keep {
