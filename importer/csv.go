@@ -16,7 +16,8 @@ import (
 // may come in any order; other columns are ignored. Errors name the table,
 // the line and the column.
 
-// CSVColumns lists the columns each table reads.
+// CorridorColumns and NodeColumns list the columns the corridors and nodes
+// tables read (other columns are ignored).
 var (
 	CorridorColumns = []string{"from", "to", "length", "effort", "covered", "closed"}
 	NodeColumns     = []string{"id", "label", "x", "y", "candidate", "probability"}
