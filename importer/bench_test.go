@@ -5,14 +5,17 @@ import (
 	"math/rand/v2"
 	"sync"
 	"testing"
+	"time"
 
 	"github.com/paulmach/orb/geojson"
 )
 
 // The speed goal (issue 10): importing a generated 50,000-line network takes
 // at most 3 times as long as decoding the same file's JSON alone. Compare
-// BenchmarkImport50k with BenchmarkDecode50kOrb (the GeoJSON library's own
-// decoding of the file) and BenchmarkDecode50kAny (encoding/json into any):
+// BenchmarkImport50k with BenchmarkDecode50kAny (encoding/json into any) and
+// BenchmarkDecode50kOrb (the GeoJSON library's decoding of the file, with
+// the goccy decoder this package gives it, orbjson.go), or run
+// BenchmarkImportVsDecode50k, which alternates them and reports the ratios:
 //
 //	go test ./importer -run XXX -bench 50k -benchtime 5x
 
@@ -89,4 +92,35 @@ func BenchmarkDecode50kAny(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
+}
+
+// BenchmarkImportVsDecode50k alternates the two in every iteration, so that
+// a machine shared with other work slows both alike, and reports the ratio
+// of import time to decoding time (encoding/json into any, and orb's
+// FeatureCollection decoding) as the metrics "x-any" and "x-orb".
+func BenchmarkImportVsDecode50k(b *testing.B) {
+	data := bigNetwork(b)
+	var imp, dec, orbT time.Duration
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		t0 := time.Now()
+		var v any
+		if err := stdjson.Unmarshal(data, &v); err != nil {
+			b.Fatal(err)
+		}
+		t1 := time.Now()
+		if _, err := ReadGeoJSON(data, DefaultOptions()); err != nil {
+			b.Fatal(err)
+		}
+		t2 := time.Now()
+		if _, err := geojson.UnmarshalFeatureCollection(data); err != nil {
+			b.Fatal(err)
+		}
+		t3 := time.Now()
+		dec += t1.Sub(t0)
+		imp += t2.Sub(t1)
+		orbT += t3.Sub(t2)
+	}
+	b.ReportMetric(float64(imp)/float64(dec), "x-any")
+	b.ReportMetric(float64(imp)/float64(orbT), "x-orb")
 }

@@ -17,42 +17,58 @@ import (
 
 type cell struct{ x, y int64 }
 
-// grid buckets points by cells of the snap size for neighbour queries.
+// grid buckets points by square cells for neighbour queries within a
+// radius r: a map from cell to the last id added there, and a chain of
+// earlier ids. Cells are 4r wide, so that a query looks at the one to four
+// cells the disk of radius r overlaps (2.25 on average) rather than nine.
 type grid struct {
-	size float64
-	m    map[cell][]int32
+	r, size float64
+	head    map[cell]int32
+	next    []int32 // next[id] is the previous id in the same cell, or -1
 }
 
-func newGrid(size float64, hint int) *grid {
-	return &grid{size: size, m: make(map[cell][]int32, hint)}
+func newGrid(r float64, hint int) *grid {
+	return &grid{r: r, size: 4 * r, head: make(map[cell]int32, hint), next: make([]int32, 0, hint)}
 }
 
-func (g *grid) key(p [2]float64) cell {
+func (g *grid) cellOf(x, y float64) cell {
 	if g.size == 0 {
-		return cell{int64(math.Float64bits(p[0])), int64(math.Float64bits(p[1]))}
+		return cell{int64(math.Float64bits(x)), int64(math.Float64bits(y))}
 	}
-	return cell{int64(math.Floor(p[0] / g.size)), int64(math.Floor(p[1] / g.size))}
+	return cell{int64(math.Floor(x / g.size)), int64(math.Floor(y / g.size))}
 }
 
+// add adds p under id; ids must be added in order 0, 1, 2, ...
 func (g *grid) add(p [2]float64, id int32) {
-	k := g.key(p)
-	g.m[k] = append(g.m[k], id)
+	k := g.cellOf(p[0], p[1])
+	prev, ok := g.head[k]
+	if !ok {
+		prev = -1
+	}
+	g.next = append(g.next, prev)
+	g.head[k] = id
 }
 
-// near calls f for every id in the cells around p (the caller checks the distance).
+func (g *grid) empty() bool { return len(g.head) == 0 }
+
+// near calls f for every id in the cells that the disk of radius r around p
+// overlaps (the caller checks the distance).
 func (g *grid) near(p [2]float64, f func(id int32)) {
-	k := g.key(p)
-	if g.size == 0 {
-		for _, id := range g.m[k] {
+	walk := func(c cell) {
+		id, ok := g.head[c]
+		for ok && id >= 0 {
 			f(id)
+			id = g.next[id]
 		}
+	}
+	if g.size == 0 {
+		walk(g.cellOf(p[0], p[1]))
 		return
 	}
-	for dx := int64(-1); dx <= 1; dx++ {
-		for dy := int64(-1); dy <= 1; dy++ {
-			for _, id := range g.m[cell{k.x + dx, k.y + dy}] {
-				f(id)
-			}
+	lo, hi := g.cellOf(p[0]-g.r, p[1]-g.r), g.cellOf(p[0]+g.r, p[1]+g.r)
+	for x := lo.x; x <= hi.x; x++ {
+		for y := lo.y; y <= hi.y; y++ {
+			walk(cell{x, y})
 		}
 	}
 }
@@ -96,8 +112,12 @@ func buildJunctions(net *network, lines []gline, points []gpoint, snap float64) 
 	// key[l][k] is the junction key of vertex k of line l, or -1; keys below
 	// nEnds are end clusters, the others shared vertices.
 	key := make([][]int32, len(lines))
-	shared := make(map[orb.Point]int32) // interior position -> key (or -2 when seen once)
-	first := make(map[orb.Point]vref)
+	// interior position -> its junction key, or -2 with the first place seen
+	type seenAt struct {
+		key   int32
+		first vref
+	}
+	shared := make(map[orb.Point]seenAt, len(lines))
 	nextKey := int32(nEnds)
 	for li := range lines {
 		l := &lines[li]
@@ -107,28 +127,28 @@ func buildJunctions(net *network, lines []gline, points []gpoint, snap float64) 
 		ks[last] = int32(clusters.find(2*li + 1))
 		for k := 1; k < last; k++ {
 			ks[k] = -1
-			if len(ends.m) > 0 {
+			if !ends.empty() {
 				if e := nearestEnd(l.xy[k]); e >= 0 {
 					ks[k] = int32(clusters.find(e))
 					continue
 				}
 			}
 			p := l.src[k]
-			if kk, seen := shared[p]; seen {
-				if kk == -2 {
-					kk = nextKey
+			if sa, seen := shared[p]; seen {
+				if sa.key == -2 {
+					sa.key = nextKey
 					nextKey++
-					shared[p] = kk
-					f := first[p]
-					key[f.l][f.k] = kk
+					shared[p] = sa
+					f := sa.first
 					if f.l == int32(li) {
-						ks[f.k] = kk
+						ks[f.k] = sa.key
+					} else {
+						key[f.l][f.k] = sa.key
 					}
 				}
-				ks[k] = kk
+				ks[k] = sa.key
 			} else {
-				shared[p] = -2
-				first[p] = vref{int32(li), int32(k)}
+				shared[p] = seenAt{-2, vref{int32(li), int32(k)}}
 			}
 		}
 		key[li] = ks
