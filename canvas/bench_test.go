@@ -74,7 +74,7 @@ func benchOverlay(e *Editor, frame int) Overlay {
 func BenchmarkRefresh2000(b *testing.B) {
 	e, _ := benchEditor(b, 2000)
 	e.SetOverlay(benchOverlay(e, 0))
-	r := e.r
+	r := rendererOf(e)
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
@@ -85,7 +85,7 @@ func BenchmarkRefresh2000(b *testing.B) {
 // BenchmarkLayout2000: Layout alone (what a pan or zoom step costs).
 func BenchmarkLayout2000(b *testing.B) {
 	e, _ := benchEditor(b, 2000)
-	r := e.r
+	r := rendererOf(e)
 	b.ReportAllocs()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {

@@ -107,8 +107,6 @@ type Editor struct {
 	msg   message
 	after func(d time.Duration, f func()) // timer used to hide messages; replaced in tests
 	now   func() time.Time
-
-	r *editorRenderer
 }
 
 type histEntry struct {
@@ -132,7 +130,7 @@ type derived struct {
 // NewEditor returns an editor showing sc (see SetScenario).
 func NewEditor(sc engine.Scenario) *Editor {
 	e := &Editor{view: geom.NewView(), sel: Selection{Kind: SelNone, Index: -1}, hover: Selection{Kind: SelNone, Index: -1}}
-	e.overlay = emptyOverlay()
+	e.overlay = NoOverlay()
 	e.now = time.Now
 	e.after = func(d time.Duration, f func()) { time.AfterFunc(d, func() { fyne.Do(f) }) }
 	e.ExtendBaseWidget(e)
@@ -170,7 +168,7 @@ func (e *Editor) setScenario(sc engine.Scenario) {
 	e.sel = Selection{Kind: SelNone, Index: -1}
 	e.hover = Selection{Kind: SelNone, Index: -1}
 	e.drag = drag{}
-	e.overlay = emptyOverlay()
+	e.overlay = NoOverlay()
 	e.rebuild()
 	e.placeMissing()
 	e.rebuild()
@@ -386,11 +384,7 @@ func bfsOrder(parent []int, root int) []int {
 }
 
 // CreateRenderer is part of fyne.Widget.
-func (e *Editor) CreateRenderer() fyne.WidgetRenderer {
-	r := newEditorRenderer(e)
-	e.r = r
-	return r
-}
+func (e *Editor) CreateRenderer() fyne.WidgetRenderer { return newEditorRenderer(e) }
 
 // Resize is part of fyne.CanvasObject; the first non-empty size fits a
 // pending view.
@@ -515,35 +509,16 @@ func (e *Editor) FitView() {
 // fitMargin is the room FitView leaves around every junction (widget units); labels get more.
 const fitMargin = 32
 
-// fitExtents is the room each junction needs on screen: its marker everywhere, and its label to the
-// right and above (where the renderer places a label first), so that a fitted view never cuts a label
-// at the edge. Label sizes are the renderer's when it has measured them, else measured here.
+// fitExtents is the room each junction needs on screen (geom.LabelRoom): its marker everywhere, and
+// its label to the right and above (where the renderer places a label first), so that a fitted view
+// never cuts a label at the edge. Labels are measured as the renderer draws them.
 func (e *Editor) fitExtents() []geom.Extent {
 	n := len(e.d.world)
 	ext := make([]geom.Extent, n)
-	var ts float32
+	ts := theme.SizeForWidget(theme.SizeNameCaptionText, e)
 	for i := 0; i < n; i++ {
-		lbl := e.sc.Nodes[i].Label
-		if lbl == "" {
-			lbl = e.sc.Nodes[i].ID
-		}
-		var sz fyne.Size
-		if e.r != nil && i < len(e.r.nodeLbl) && e.r.nodeLbl[i].Text == lbl {
-			sz = e.r.nodeLbl[i].Size()
-		} else {
-			if ts == 0 {
-				ts = theme.SizeForWidget(theme.SizeNameCaptionText, e)
-			}
-			sz = fyne.MeasureText(lbl, ts, fyne.TextStyle{})
-		}
-		w, h := float64(sz.Width), float64(sz.Height)
-		gap := float64(nodeR + 4)
-		ext[i] = geom.Extent{L: fitMargin, R: math.Max(fitMargin, gap+w+8), T: math.Max(fitMargin, gap+h+4), B: fitMargin}
-		if i == e.d.start {
-			// the start's square and tag, and a label kept clear of them
-			ext[i].B = math.Max(fitMargin, 21+h+4)
-			ext[i].R = math.Max(ext[i].R, 21+w+8)
-		}
+		sz := fyne.MeasureText(labelText(e.sc.Nodes[i]), ts, fyne.TextStyle{})
+		ext[i] = geom.LabelRoom(float64(sz.Width), float64(sz.Height), fitMargin, i == e.d.start)
 	}
 	return ext
 }
@@ -562,12 +537,8 @@ func (e *Editor) PanBy(d fyne.Delta) {
 	e.viewChanged()
 }
 
-func (e *Editor) viewChanged() {
-	if e.r != nil {
-		e.r.Layout(e.Size())
-		e.r.dirty()
-	}
-}
+// viewChanged redraws after a zoom or pan; fyne hands it to the renderer.
+func (e *Editor) viewChanged() { e.Refresh() }
 
 func toPos(p geom.Pt) fyne.Position { return fyne.NewPos(float32(p.X), float32(p.Y)) }
 func toPt(p fyne.Position) geom.Pt  { return geom.Pt{X: float64(p.X), Y: float64(p.Y)} }

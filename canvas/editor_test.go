@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"reflect"
 	"strings"
 	"testing"
 	"time"
@@ -152,7 +153,7 @@ func TestConnectByDragAndRefuseCycle(t *testing.T) {
 	// Alt-drag from c to the unconnected d adds a corridor of the drawn length (14.142 → 14.1)
 	dragPtr(e, e.NodeXY(3), e.NodeXY(4), fyne.KeyModifierAlt)
 	got := e.Scenario().Corridors
-	if len(got) != 4 || got[3] != (engine.Corridor{From: "c", To: "d", Length: 14.1}) {
+	if len(got) != 4 || !reflect.DeepEqual(got[3], engine.Corridor{From: "c", To: "d", Length: 14.1}) {
 		t.Fatalf("corridors %+v", got)
 	}
 	if e.UndoName() != "Connect c–d" {
@@ -203,8 +204,8 @@ func TestRubberBandFollowsPointer(t *testing.T) {
 	if !strings.Contains(renderMarkup(w), "<line ") || e.drag.kind != dragConnect {
 		t.Fatal("no connect drag")
 	}
-	if e.r.rubber.Hidden || !near(e.r.rubber.Position2, mid, 0.01) || !near(e.r.rubber.Position1, from, 0.01) {
-		t.Fatalf("rubber band %v–%v", e.r.rubber.Position1, e.r.rubber.Position2)
+	if rendererOf(e).markers.rubber.Hidden || !near(rendererOf(e).markers.rubber.Position2, mid, 0.01) || !near(rendererOf(e).markers.rubber.Position1, from, 0.01) {
+		t.Fatalf("rubber band %v–%v", rendererOf(e).markers.rubber.Position1, rendererOf(e).markers.rubber.Position2)
 	}
 	e.TypedKey(&fyne.KeyEvent{Name: fyne.KeyEscape})
 	if e.drag.kind != dragNone {
@@ -528,23 +529,23 @@ func TestLabelsHideWhenZoomedOut(t *testing.T) {
 	e, _, _ := newTestEditor(t, randomScenario(60, 5, true))
 	visible := func() (nodes, corridors int) {
 		for i := range e.Scenario().Nodes {
-			if !e.r.nodeLbl[i].Hidden {
+			if !rendererOf(e).junctions.labels[i].Hidden {
 				nodes++
 			}
 		}
 		for i := range e.Scenario().Corridors {
-			if !e.r.corrLbl[i].Hidden {
+			if !rendererOf(e).corridors.labels[i].Hidden {
 				corridors++
 			}
 		}
 		return
 	}
 	e.ZoomBy(0.05, e.centre())
-	if n, c := visible(); n != 1 || c != 0 || e.r.nodeLbl[0].Hidden {
+	if n, c := visible(); n != 1 || c != 0 || rendererOf(e).junctions.labels[0].Hidden {
 		t.Fatalf("zoomed out: %d node and %d corridor labels shown, want only the start's", n, c)
 	}
 	e.Select(Selection{SelNode, 7})
-	if n, _ := visible(); n != 2 || e.r.nodeLbl[7].Hidden {
+	if n, _ := visible(); n != 2 || rendererOf(e).junctions.labels[7].Hidden {
 		t.Fatal("the selected junction's label must stay visible")
 	}
 	e.FitView()
@@ -556,12 +557,12 @@ func TestLabelsHideWhenZoomedOut(t *testing.T) {
 	// shown labels never overlap each other
 	var boxes []geom.Rect
 	for i := range e.Scenario().Nodes {
-		if t := e.r.nodeLbl[i]; !t.Hidden {
+		if t := rendererOf(e).junctions.labels[i]; !t.Hidden {
 			boxes = append(boxes, geom.Rect{Min: toPt(t.Position()), Max: toPt(t.Position().Add(t.Size()))})
 		}
 	}
 	for i := range e.Scenario().Corridors {
-		if t := e.r.corrLbl[i]; !t.Hidden {
+		if t := rendererOf(e).corridors.labels[i]; !t.Hidden {
 			boxes = append(boxes, geom.Rect{Min: toPt(t.Position()), Max: toPt(t.Position().Add(t.Size()))})
 		}
 	}
@@ -608,7 +609,7 @@ func TestFitViewLeavesRoomForLabels(t *testing.T) {
 	e, _, _ := newTestEditor(t, sc)
 	e.FitView()
 	last := len(sc.Nodes) - 1
-	lbl := e.r.nodeLbl[last]
+	lbl := rendererOf(e).junctions.labels[last]
 	if lbl.Hidden {
 		t.Fatal("the far end's label is hidden after FitView")
 	}

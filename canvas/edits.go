@@ -181,10 +181,7 @@ func (e *Editor) RedoName() string {
 
 func (e *Editor) nodeName(i int) string {
 	n := e.sc.Nodes[i]
-	if n.Label != "" && n.Label != n.ID {
-		return fmt.Sprintf("%s (%s)", n.Label, n.ID)
-	}
-	return n.ID
+	return JunctionName(n.ID, n.Label)
 }
 
 func (e *Editor) checkNode(i int) error {
@@ -419,11 +416,12 @@ func (e *Editor) Tidy() {
 		return
 	}
 	pos := e.tidyLayout()
-	_ = e.Edit("Tidy layout", func(sc *engine.Scenario) error {
+	err := e.Edit("Tidy layout", func(sc *engine.Scenario) error {
 		for i := range sc.Nodes {
 			sc.Nodes[i].X, sc.Nodes[i].Y, sc.Nodes[i].HasXY = round3(pos[i].X), round3(pos[i].Y), true
 		}
 		return nil
 	})
+	e.report(err, e.pointer) // a loaded draft with a loop cannot be tidied: say so
 	e.FitView()
 }

@@ -36,7 +36,7 @@ func TestGoldenOverlay(t *testing.T) {
 	// out-of-range overlay indices (a stale overlay) are ignored, not drawn or crashed on
 	e.SetOverlay(Overlay{Evac: []float64{1}, Worst: 99, Focus: -7, Unvisited: []int{42},
 		Agents: []AgentMark{{Name: "A", At: engine.Point{From: 0, To: 3, Offset: 1}}}})
-	if !e.r.worst.Hidden || !e.r.focus.Hidden || !e.r.agents[0].Hidden {
+	if !rendererOf(e).markers.worst.Hidden || !rendererOf(e).markers.focus.Hidden || !rendererOf(e).agents.discs[0].Hidden {
 		t.Fatal("stale overlay drawn")
 	}
 	e.SetOverlay(NoOverlay())

@@ -111,3 +111,6 @@ func minPairDist(pts []geom.Pt) float64 {
 	}
 	return md
 }
+
+// rendererOf is the renderer fyne made for e (tests look at the objects it draws).
+func rendererOf(e *Editor) *editorRenderer { return test.WidgetRenderer(e).(*editorRenderer) }

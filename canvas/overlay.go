@@ -29,11 +29,6 @@ type AgentMark struct {
 	Informed bool // knows where the exit is: drawn with a thick ring
 }
 
-// NoOverlay is the empty overlay (Worst and Focus -1).
-func NoOverlay() Overlay { return emptyOverlay() }
-
-func emptyOverlay() Overlay { return Overlay{Worst: -1, Focus: -1} }
-
 // heatStops is Duosweep's own sequential ramp, dark blue through slate and
 // olive to pale yellow. Lightness rises monotonically (checked by a test), so
 // the order reads in grey and for the common colour-vision deficiencies; the

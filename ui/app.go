@@ -1,8 +1,6 @@
 package ui
 
 import (
-	"context"
-	"fmt"
 	"path/filepath"
 	"strings"
 	"sync"
@@ -36,35 +34,10 @@ type App struct {
 	model   engine.Model
 	planner string // "" is "best available"
 
-	// the last published planning result (site, plan and report are nil when err is set)
-	gen        uint64 // generation of the newest planning run
-	shownGen   uint64 // generation of the result on screen
-	cancel     context.CancelFunc
-	busy       bool
-	site       *engine.Site
-	plan       *engine.Plan
-	report     *engine.Report
-	planErr    error
-	comparison *comparison
-	// the best-available or chosen planner's plan as published (a.plan may be a search result in use)
-	pubPlan   *engine.Plan
-	pubReport *engine.Report
-
-	// the "search for a better plan" action
-	search searchState
-
-	// playback
-	focus    int // candidate replayed on request (OnNodeTapped), -1 for the worst exit
-	replay   *engine.Replay
-	trails   [2]trail
-	t        float64
-	tMax     float64
-	speed    float64
-	playing  bool
-	anim     *fyne.Animation
-	lastTick time.Time
-	heat     canvas.Overlay // per-report part of the overlay (heat, worst, unvisited)
-	overlay  canvas.Overlay // what the editor shows now
+	planning planningState  // runs in flight and the result on screen (planning.go)
+	search   searchState    // the "search for a better plan" action (search.go)
+	playback playbackState  // the replay being played back (timeline.go)
+	table    candidateTable // the candidate table of the plan panel (candidates.go)
 
 	// post delivers a function to the UI goroutine (fyne.Do; tests swap in a queue).
 	post func(func())
@@ -76,12 +49,6 @@ type App struct {
 	fit           *fitLayout
 	autosaveTimer *time.Timer
 	recovery      string // recovery file path (computed once; tests set it)
-
-	// candidate table order
-	exitRows []int // indices into report.Exits, in display order
-	sortCol  int
-	sortDesc bool
-	syncing  bool // true while code (not the user) moves the slider or the event list
 
 	w widgets
 }
@@ -101,7 +68,8 @@ type options struct {
 }
 
 func newApp(a fyne.App, w fyne.Window, path string, opt options) *App {
-	app := &App{fyneApp: a, win: w, focus: -1, speed: 1, post: opt.post, now: time.Now, recovery: opt.recovery}
+	app := &App{fyneApp: a, win: w, post: opt.post, now: time.Now, recovery: opt.recovery}
+	app.playback = newPlaybackState()
 	sc := projects.Demo()
 	var loadErr error
 	if path != "" {
@@ -216,8 +184,8 @@ func (a *App) scenarioChanged(engine.Scenario) {
 // setScenario replaces the scenario (New, Open, Recover) and replans; it starts a new undo history.
 func (a *App) setScenario(sc engine.Scenario, path string, dirty bool) {
 	a.stop()
-	a.focus = -1
-	a.t = 0
+	a.playback.focus = -1
+	a.playback.t = 0
 	a.path = path
 	a.editor.SetScenario(sc)
 	a.editor.Select(canvas.Selection{Kind: canvas.SelNone})
@@ -269,17 +237,6 @@ func (a *App) showError(summary string, err error) {
 	d.Resize(fyne.NewSize(560, 200))
 	d.Show()
 	a.setStatus(summary)
-}
-
-// nodeName is "label (id)" or the id.
-func nodeName(s *engine.Site, v int) string {
-	if v < 0 || s == nil || v >= s.N {
-		return "—"
-	}
-	if l := s.Scenario.Nodes[v].Label; l != "" && l != s.IDs[v] {
-		return fmt.Sprintf("%s (%s)", s.IDs[v], l)
-	}
-	return s.IDs[v]
 }
 
 // fitView fits the site in view (toolbar and menu) and keeps it fitted while the window is resized.

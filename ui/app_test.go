@@ -30,19 +30,19 @@ func TestMainWindowBuildsOnDemo(t *testing.T) {
 		t.Fatal("the editor does not hold the demo scenario")
 	}
 	_, _, r := engineBest(t, demo, engine.Radio)
-	if a.report == nil || a.planErr != nil {
-		t.Fatalf("no plan on the demo: %v", a.planErr)
+	if a.planning.report == nil || a.planning.err != nil {
+		t.Fatalf("no plan on the demo: %v", a.planning.err)
 	}
-	if !near(a.report.Worst, r.Worst) {
-		t.Fatalf("worst %v, engine says %v", a.report.Worst, r.Worst)
+	if !near(a.planning.report.Worst, r.Worst) {
+		t.Fatalf("worst %v, engine says %v", a.planning.report.Worst, r.Worst)
 	}
-	if got := a.w.worst.Text; got != fmtTime(r.Worst) {
-		t.Fatalf("worst case label %q, want %q", got, fmtTime(r.Worst))
+	if got := a.w.worst.Text; got != clockSeconds(r.Worst) {
+		t.Fatalf("worst case label %q, want %q", got, clockSeconds(r.Worst))
 	}
 	if !strings.Contains(a.w.worst.Text, projects.FormatDuration(r.Worst)) || !strings.Contains(a.w.worst.Text, " s)") {
 		t.Fatalf("worst case label %q lacks mm:ss and seconds", a.w.worst.Text)
 	}
-	if a.busy || a.w.busyBar.Visible() {
+	if a.planning.busy || a.w.busyBar.Visible() {
 		t.Fatal("still busy after the first plan was published")
 	}
 	if a.w.errBox.Visible() {
@@ -51,11 +51,11 @@ func TestMainWindowBuildsOnDemo(t *testing.T) {
 	if r.HasExpected != a.w.expected.Visible() {
 		t.Fatalf("expected time shown %v, engine HasExpected %v", a.w.expected.Visible(), r.HasExpected)
 	}
-	if r.HasExpected && a.w.expected.Text != fmtTime(r.Expected) {
-		t.Fatalf("expected time %q, want %q", a.w.expected.Text, fmtTime(r.Expected))
+	if r.HasExpected && a.w.expected.Text != clockSeconds(r.Expected) {
+		t.Fatalf("expected time %q, want %q", a.w.expected.Text, clockSeconds(r.Expected))
 	}
-	if len(a.exitRows) != len(r.Exits) {
-		t.Fatalf("table has %d rows, engine reports %d candidates", len(a.exitRows), len(r.Exits))
+	if len(a.table.rows) != len(r.Exits) {
+		t.Fatalf("table has %d rows, engine reports %d candidates", len(a.table.rows), len(r.Exits))
 	}
 }
 
@@ -66,8 +66,8 @@ func TestWorstExitHighlightedIsEnginesWorstExit(t *testing.T) {
 	if ov.Worst != r.WorstExit {
 		t.Fatalf("canvas highlights node %d as worst, engine says %d", ov.Worst, r.WorstExit)
 	}
-	if ov.Focus != r.WorstExit || h.app.replay.Exit != r.WorstExit {
-		t.Fatalf("replayed exit %d (focus %d), want the worst exit %d by default", h.app.replay.Exit, ov.Focus, r.WorstExit)
+	if ov.Focus != r.WorstExit || h.app.playback.replay.Exit != r.WorstExit {
+		t.Fatalf("replayed exit %d (focus %d), want the worst exit %d by default", h.app.playback.replay.Exit, ov.Focus, r.WorstExit)
 	}
 	if !strings.HasPrefix(h.app.w.worstExit.Text, nodeName(s, r.WorstExit)) {
 		t.Fatalf("worst exit label %q, want %s", h.app.w.worstExit.Text, nodeName(s, r.WorstExit))
@@ -85,10 +85,10 @@ func TestWorstExitHighlightedIsEnginesWorstExit(t *testing.T) {
 func TestReplanAfterEditUpdatesResult(t *testing.T) {
 	h := newHarness(t, "")
 	a := h.app
-	before := a.report.Worst
+	before := a.planning.report.Worst
 	// lengthen every corridor into the worst exit's branch: the worst case must grow
 	sc := a.editor.Scenario()
-	worstID := sc.Nodes[a.report.WorstExit].ID
+	worstID := sc.Nodes[a.planning.report.WorstExit].ID
 	if err := a.editor.Edit("longer", func(s *engine.Scenario) error {
 		for i, c := range s.Corridors {
 			if c.From == worstID || c.To == worstID {
@@ -100,21 +100,21 @@ func TestReplanAfterEditUpdatesResult(t *testing.T) {
 		t.Fatal(err)
 	}
 	// the edit started a replan: the window is busy until it is published
-	if !a.busy || !a.w.busyBar.Visible() || a.w.busyLabel.Text != "planning…" {
-		t.Fatalf("no busy state right after an edit (busy %v, label %q)", a.busy, a.w.busyLabel.Text)
+	if !a.planning.busy || !a.w.busyBar.Visible() || a.w.busyLabel.Text != "planning…" {
+		t.Fatalf("no busy state right after an edit (busy %v, label %q)", a.planning.busy, a.w.busyLabel.Text)
 	}
 	if !strings.HasSuffix(h.win.Title(), " •") {
 		t.Fatalf("title %q lacks the unsaved mark", h.win.Title())
 	}
 	h.wait()
 	_, _, r := engineBest(t, a.editor.Scenario(), engine.Radio)
-	if !near(a.report.Worst, r.Worst) || !(r.Worst > before) {
-		t.Fatalf("after the edit: worst %v, engine %v, before %v", a.report.Worst, r.Worst, before)
+	if !near(a.planning.report.Worst, r.Worst) || !(r.Worst > before) {
+		t.Fatalf("after the edit: worst %v, engine %v, before %v", a.planning.report.Worst, r.Worst, before)
 	}
-	if a.w.worst.Text != fmtTime(r.Worst) {
-		t.Fatalf("label %q, want %q", a.w.worst.Text, fmtTime(r.Worst))
+	if a.w.worst.Text != clockSeconds(r.Worst) {
+		t.Fatalf("label %q, want %q", a.w.worst.Text, clockSeconds(r.Worst))
 	}
-	if a.busy {
+	if a.planning.busy {
 		t.Fatal("still busy")
 	}
 }
@@ -130,12 +130,12 @@ func TestOnlyTheNewestReplanIsPublished(t *testing.T) {
 		}
 	}
 	h.wait()
-	if a.shownGen != a.gen {
-		t.Fatalf("shown generation %d, newest %d", a.shownGen, a.gen)
+	if a.planning.shownGen != a.planning.gen {
+		t.Fatalf("shown generation %d, newest %d", a.planning.shownGen, a.planning.gen)
 	}
 	_, _, r := engineBest(t, a.editor.Scenario(), engine.Radio)
-	if !near(a.report.Worst, r.Worst) {
-		t.Fatalf("worst %v, engine on the last edit %v", a.report.Worst, r.Worst)
+	if !near(a.planning.report.Worst, r.Worst) {
+		t.Fatalf("worst %v, engine on the last edit %v", a.planning.report.Worst, r.Worst)
 	}
 }
 
@@ -156,7 +156,7 @@ func TestInvalidSiteShowsEngineMessage(t *testing.T) {
 	if a.w.errLabel.Text != want.Error() {
 		t.Fatalf("message %q, engine says %q", a.w.errLabel.Text, want.Error())
 	}
-	if a.replay != nil || len(a.editor.Overlay().Agents) != 0 {
+	if a.playback.replay != nil || len(a.editor.Overlay().Agents) != 0 {
 		t.Fatal("agents still replayed on an invalid site")
 	}
 	if a.w.legend.Visible() || a.editor.Overlay().Evac != nil {
@@ -164,8 +164,8 @@ func TestInvalidSiteShowsEngineMessage(t *testing.T) {
 	}
 	a.editor.Undo()
 	h.wait()
-	if a.planErr != nil || a.w.errBox.Visible() || !a.w.figures.Visible() {
-		t.Fatalf("after undo the site is valid again but the panel shows %v", a.planErr)
+	if a.planning.err != nil || a.w.errBox.Visible() || !a.w.figures.Visible() {
+		t.Fatalf("after undo the site is valid again but the panel shows %v", a.planning.err)
 	}
 }
 
@@ -177,10 +177,10 @@ func TestModelSwitchChangesResults(t *testing.T) {
 	h.wait()
 	_, _, r := engineBest(t, projects.Demo(), engine.FaceToFace)
 	_, _, rr := engineBest(t, projects.Demo(), engine.Radio)
-	if a.report.Model != engine.FaceToFace || !near(a.report.Worst, r.Worst) {
-		t.Fatalf("face to face: model %v worst %v, engine %v", a.report.Model, a.report.Worst, r.Worst)
+	if a.planning.report.Model != engine.FaceToFace || !near(a.planning.report.Worst, r.Worst) {
+		t.Fatalf("face to face: model %v worst %v, engine %v", a.planning.report.Model, a.planning.report.Worst, r.Worst)
 	}
-	if a.replay.Model != engine.FaceToFace {
+	if a.playback.replay.Model != engine.FaceToFace {
 		t.Fatal("the replay still uses radio")
 	}
 	if !near(r.Worst, rr.Worst) && a.w.worst.Text == radioText {
@@ -205,8 +205,8 @@ func TestModelSwitchChangesResults(t *testing.T) {
 		t.Fatal(err)
 	}
 	want, _ := engine.Evaluate(s, p, engine.FaceToFace)
-	if a.plan.Planner != name || !near(a.report.Worst, want.Worst) {
-		t.Fatalf("planner %s: got %s worst %v, want %v", name, a.plan.Planner, a.report.Worst, want.Worst)
+	if a.planning.plan.Planner != name || !near(a.planning.report.Worst, want.Worst) {
+		t.Fatalf("planner %s: got %s worst %v, want %v", name, a.planning.plan.Planner, a.planning.report.Worst, want.Worst)
 	}
 }
 
@@ -218,13 +218,13 @@ func TestComparisonMatchesEngine(t *testing.T) {
 	rr, rf, _ := engine.EvaluateBoth(s, pr)
 	fr, ff, _ := engine.EvaluateBoth(s, pf)
 	want := [2][2]float64{{rr.Worst, rf.Worst}, {fr.Worst, ff.Worst}}
-	if a.comparison == nil || a.comparison.err != nil {
-		t.Fatalf("no comparison: %+v", a.comparison)
+	if a.planning.comparison == nil || a.planning.comparison.err != nil {
+		t.Fatalf("no comparison: %+v", a.planning.comparison)
 	}
 	for i := 0; i < 2; i++ {
 		for j := 0; j < 2; j++ {
-			if !strings.HasPrefix(a.w.cmpCells[i][j].Text, fmtTime(want[i][j])) {
-				t.Fatalf("cell %d,%d %q, want %s", i, j, a.w.cmpCells[i][j].Text, fmtTime(want[i][j]))
+			if !strings.HasPrefix(a.w.cmpCells[i][j].Text, clockSeconds(want[i][j])) {
+				t.Fatalf("cell %d,%d %q, want %s", i, j, a.w.cmpCells[i][j].Text, clockSeconds(want[i][j]))
 			}
 		}
 	}
@@ -241,34 +241,34 @@ func TestComparisonMatchesEngine(t *testing.T) {
 func TestCandidateTableSorts(t *testing.T) {
 	h := newHarness(t, "")
 	a := h.app
-	evac := func(row int) float64 { return a.report.Exits[a.exitRows[row]].EvacAt }
-	a.sortBy(3)
-	for i := 1; i < len(a.exitRows); i++ {
+	evac := func(row int) float64 { return a.planning.report.Exits[a.table.rows[row]].EvacAt }
+	a.table.sortBy(colEvacAt)
+	for i := 1; i < len(a.table.rows); i++ {
 		if evac(i) < evac(i-1) {
 			t.Fatalf("ascending by evacuation: row %d %v after %v", i, evac(i), evac(i-1))
 		}
 	}
-	a.sortBy(3)
-	for i := 1; i < len(a.exitRows); i++ {
+	a.table.sortBy(colEvacAt)
+	for i := 1; i < len(a.table.rows); i++ {
 		if evac(i) > evac(i-1) {
 			t.Fatalf("descending by evacuation: row %d %v after %v", i, evac(i), evac(i-1))
 		}
 	}
-	if got := a.exitCell(0, 0); !strings.Contains(got, "◆") || a.report.Exits[a.exitRows[0]].Node != a.report.WorstExit {
+	if got := a.table.cell(0, colNode); !strings.Contains(got, "◆") || a.planning.report.Exits[a.table.rows[0]].Node != a.planning.report.WorstExit {
 		t.Fatalf("first row when sorted by evacuation descending is %q, want the worst exit", got)
 	}
-	a.sortBy(1)
-	for i := 1; i < len(a.exitRows); i++ {
-		if a.report.Exits[a.exitRows[i]].FoundAt < a.report.Exits[a.exitRows[i-1]].FoundAt {
+	a.table.sortBy(colFoundAt)
+	for i := 1; i < len(a.table.rows); i++ {
+		if a.planning.report.Exits[a.table.rows[i]].FoundAt < a.planning.report.Exits[a.table.rows[i-1]].FoundAt {
 			t.Fatal("not sorted by found-at")
 		}
 	}
 	// a header click sorts: drive the header button the table renders
-	hdr := a.w.table.CreateHeader()
-	a.w.table.UpdateHeader(widgetCell(-1, 3), hdr)
+	hdr := a.table.widget.CreateHeader()
+	a.table.widget.UpdateHeader(widgetCell(-1, 3), hdr)
 	test.Tap(hdrButton(hdr))
-	if a.sortCol != 3 || a.sortDesc {
-		t.Fatalf("header tap: sort column %d desc %v, want 3 ascending", a.sortCol, a.sortDesc)
+	if a.table.sortCol != colEvacAt || a.table.sortDesc {
+		t.Fatalf("header tap: sort column %d desc %v, want 3 ascending", a.table.sortCol, a.table.sortDesc)
 	}
 }
 
@@ -276,7 +276,7 @@ func TestLoadBadFileLeavesScenarioUntouched(t *testing.T) {
 	h := newHarness(t, "")
 	a := h.app
 	before := a.editor.Scenario()
-	beforeWorst := a.report.Worst
+	beforeWorst := a.planning.report.Worst
 	bad := filepath.Join(t.TempDir(), "bad.sweep.json")
 	data := strings.Replace(string(projects.DemoJSON()), `"length": 44`, `"length": -44`, 1)
 	if data == string(projects.DemoJSON()) {
@@ -293,7 +293,7 @@ func TestLoadBadFileLeavesScenarioUntouched(t *testing.T) {
 		t.Fatalf("error %q does not name the file, field and value", err)
 	}
 	h.wait()
-	if !reflect.DeepEqual(a.editor.Scenario(), before) || a.report.Worst != beforeWorst || a.path != "" {
+	if !reflect.DeepEqual(a.editor.Scenario(), before) || a.planning.report.Worst != beforeWorst || a.path != "" {
 		t.Fatal("a failed load changed the open scenario")
 	}
 	if h.win.Canvas().Overlays().Top() == nil {
@@ -463,7 +463,7 @@ func TestInspectorRejectsBadInput(t *testing.T) {
 		t.Fatal("error still shown after a valid entry")
 	}
 	_, _, r := engineBest(t, a.editor.Scenario(), engine.Radio)
-	if !near(a.report.Worst, r.Worst) {
+	if !near(a.planning.report.Worst, r.Worst) {
 		t.Fatal("no replan after the inspector edit")
 	}
 	// a probability outside [0, 1] is refused
@@ -490,7 +490,7 @@ func TestIncompletePlanIsFlagged(t *testing.T) {
 	if r.Complete {
 		t.Fatal("an idle plan is complete")
 	}
-	a.publish(a.gen, planResult{site: s, plan: idle, report: r})
+	a.publish(a.planning.gen, planResult{site: s, plan: idle, report: r})
 	if !a.w.incomplete.Visible() {
 		t.Fatal("no incompleteness warning")
 	}
@@ -528,11 +528,11 @@ func TestPlannerRefusalIsShownAndComparisonStillWorks(t *testing.T) {
 		if a.w.errLabel.Text != want.Error() || a.w.errTitle.Text != "The planner could not plan this site" {
 			t.Fatalf("planner refusal shown as %q / %q, engine says %q", a.w.errTitle.Text, a.w.errLabel.Text, want)
 		}
-		if a.comparison == nil || a.comparison.err != nil {
+		if a.planning.comparison == nil || a.planning.comparison.err != nil {
 			t.Fatal("no comparison although the site is valid")
 		}
-	} else if a.planErr != nil || a.plan.Planner != search {
-		t.Fatalf("planner %s: %v", search, a.planErr)
+	} else if a.planning.err != nil || a.planning.plan.Planner != search {
+		t.Fatalf("planner %s: %v", search, a.planning.err)
 	}
 }
 
@@ -556,7 +556,7 @@ func TestNewSiteShowsHowToStart(t *testing.T) {
 		s.Corridors = append(s.Corridors, engine.Corridor{From: "start", To: "j2", Length: 50})
 		return nil
 	})
-	if a.w.emptyHint.Visible() || !a.w.figures.Visible() || !near(a.report.Worst, 50) {
-		t.Fatalf("after adding a junction at 50 m (speed 1): worst %v", a.report.Worst)
+	if a.w.emptyHint.Visible() || !a.w.figures.Visible() || !near(a.planning.report.Worst, 50) {
+		t.Fatalf("after adding a junction at 50 m (speed 1): worst %v", a.planning.report.Worst)
 	}
 }

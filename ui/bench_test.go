@@ -22,8 +22,8 @@ func benchHarness(b *testing.B) *harness {
 	h := newHarnessOn(b, fa, "", "")
 	h.app.setScenario(sc, "", false)
 	h.wait()
-	if h.app.report == nil {
-		b.Fatalf("no plan: %v", h.app.planErr)
+	if h.app.planning.report == nil {
+		b.Fatalf("no plan: %v", h.app.planning.err)
 	}
 	return h
 }
@@ -37,11 +37,11 @@ func BenchmarkPlaybackFrame(b *testing.B) {
 	a.togglePlay()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		if !a.playing {
+		if !a.playback.playing {
 			a.togglePlay()
 		}
 		h.clock.advance(1.0 / 60)
-		a.anim.Tick(0)
+		a.playback.anim.Tick(0)
 	}
 }
 
@@ -57,8 +57,8 @@ func BenchmarkEditToReplan(b *testing.B) {
 		if err := a.editor.Edit("len", func(s *engine.Scenario) error { s.Corridors[0].Length = l; return nil }); err != nil {
 			b.Fatal(err)
 		}
-		want := a.gen
-		for a.shownGen != want {
+		want := a.planning.gen
+		for a.planning.shownGen != want {
 			<-h.q.signal // wait for posted work: the publish, or a stale run's leftovers
 			for _, f := range h.q.drain() {
 				f()

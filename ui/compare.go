@@ -9,7 +9,6 @@ import (
 	"fyne.io/fyne/v2/widget"
 
 	"duosweep/engine"
-	"duosweep/projects"
 )
 
 // comparePanel is the "Radio vs face to face" view: the best available plan under each model, each
@@ -59,13 +58,13 @@ func (a *App) comparePanel() fyne.CanvasObject {
 	return container.NewVScroll(container.NewVBox(intro, grid, widget.NewSeparator(), w.cmpCost, w.cmpCross, buttons, w.cmpStatus))
 }
 
-// refreshComparison copies a.comparison into the view.
+// refreshComparison copies a.planning.comparison into the view.
 func (a *App) refreshComparison() {
 	w := &a.w
 	if w.cmpCost == nil {
 		return
 	}
-	c := a.comparison
+	c := a.planning.comparison
 	clear := func(status string) {
 		for i := range w.cmpCells {
 			for j := range w.cmpCells[i] {
@@ -77,8 +76,8 @@ func (a *App) refreshComparison() {
 		w.cmpStatus.SetText(status)
 	}
 	switch {
-	case a.planErr != nil && a.site == nil:
-		clear("No comparison: " + a.planErr.Error())
+	case a.planning.err != nil && a.planning.site == nil:
+		clear("No comparison: " + a.planning.err.Error())
 		return
 	case c == nil:
 		clear("comparing…")
@@ -90,7 +89,7 @@ func (a *App) refreshComparison() {
 	for i := range c.cell {
 		for j := range c.cell[i] {
 			r := c.cell[i][j]
-			text := fmtTime(r.Worst)
+			text := clockSeconds(r.Worst)
 			if i == j {
 				text += "\n" + c.plans[i].Planner
 			} else if d, ok := costText(c.cell[j][j].Worst, r.Worst); ok {
@@ -102,7 +101,7 @@ func (a *App) refreshComparison() {
 	radio, f2f := c.cell[0][0].Worst, c.cell[1][1].Worst
 	if d, ok := costText(radio, f2f); ok {
 		w.cmpCost.SetText("Losing radio costs " + d + " on the worst case (" +
-			projects.FormatDuration(radio) + " with radio, " + projects.FormatDuration(f2f) + " face to face).")
+			clock(radio) + " with radio, " + clock(f2f) + " face to face).")
 	} else {
 		w.cmpCost.SetText("No finite worst case to compare.")
 	}

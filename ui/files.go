@@ -312,12 +312,12 @@ func (a *App) offerRecovery() {
 
 // printItinerary writes the printable itinerary of the current plan to a file the user picks and shows it.
 func (a *App) printItinerary() {
-	if a.plan == nil || a.report == nil {
+	if a.planning.plan == nil || a.planning.report == nil {
 		a.showError("No itinerary yet", errors.New("there is no valid plan to print: fix the site first (see the plan panel)"))
 		return
 	}
 	var buf bytes.Buffer
-	if err := projects.WriteItinerary(&buf, a.site, a.plan, a.report); err != nil {
+	if err := projects.WriteItinerary(&buf, a.planning.site, a.planning.plan, a.planning.report); err != nil {
 		a.showError("Could not write the itinerary", err)
 		return
 	}

@@ -4,9 +4,29 @@ import (
 	"context"
 	"math"
 
+	"duosweep/canvas"
 	"duosweep/engine"
 	"duosweep/engine/planners"
 )
+
+// planningState is the planning side of the window: the runs in flight and the result on screen.
+// The site, plan and report are nil when err is set (site stays set when only the planner failed).
+type planningState struct {
+	gen      uint64             // generation of the newest planning run
+	shownGen uint64             // generation of the result on screen
+	cancel   context.CancelFunc // cancels the newest run
+	busy     bool               // a run is in flight and its result is not on screen yet
+	site     *engine.Site
+	plan     *engine.Plan // the plan in use: the published one, or a search result after "Use this plan"
+	report   *engine.Report
+	err      error          // the engine's message for an invalid site or a failed planner
+	heat     canvas.Overlay // the report's part of the canvas overlay (heat, worst, unvisited)
+	// comparison is the radio-versus-face-to-face view of the site, nil while it is computed
+	comparison *comparison
+	// the best-available or chosen planner's plan as published (plan may be a search result in use)
+	pubPlan   *engine.Plan
+	pubReport *engine.Report
+}
 
 // planResult is what one background planning run produces.
 type planResult struct {
@@ -87,15 +107,15 @@ func (a *App) replan() { a.startPlan(false) }
 func (a *App) planAtStart() { a.startPlan(len(a.editor.Scenario().Nodes) <= syncPlanLimit) }
 
 func (a *App) startPlan(now bool) {
-	if a.cancel != nil {
-		a.cancel()
+	if a.planning.cancel != nil {
+		a.planning.cancel()
 	}
 	// a search on the old site or model no longer applies
 	a.dropSearch("Search cancelled: the site or the planning choices changed, so the published planners plan again.")
 	ctx, cancel := context.WithCancel(context.Background())
-	a.cancel = cancel
-	a.gen++
-	gen := a.gen
+	a.planning.cancel = cancel
+	a.planning.gen++
+	gen := a.planning.gen
 	sc := a.editor.Scenario().Clone()
 	m, planner := a.model, a.planner
 	var res planResult
@@ -114,7 +134,7 @@ func (a *App) startPlan(now bool) {
 				return // a newer run owns the screen
 			}
 			a.post(func() {
-				if gen == a.gen {
+				if gen == a.planning.gen {
 					a.publish(gen, res)
 				}
 			})
@@ -131,7 +151,7 @@ func (a *App) startPlan(now bool) {
 			return
 		}
 		a.post(func() {
-			if gen == a.gen {
+			if gen == a.planning.gen {
 				a.publishComparison(cmp)
 			}
 		})
@@ -140,27 +160,27 @@ func (a *App) startPlan(now bool) {
 
 // publish shows a planning result. It runs on the UI goroutine.
 func (a *App) publish(gen uint64, res planResult) {
-	a.shownGen = gen
-	a.planErr = res.err
-	a.comparison = nil
+	a.planning.shownGen = gen
+	a.planning.err = res.err
+	a.planning.comparison = nil
 	if res.err != nil {
 		// the canvas keeps showing the scenario; the panel shows the message
-		a.site, a.plan, a.report = res.site, nil, nil
-		a.pubPlan, a.pubReport = nil, nil
-		a.heat = noHeat()
+		a.planning.site, a.planning.plan, a.planning.report = res.site, nil, nil
+		a.planning.pubPlan, a.planning.pubReport = nil, nil
+		a.planning.heat = canvas.NoOverlay()
 		a.setBusy(false)
 		a.setReplay(nil)
 		a.refreshResults()
 		a.refreshComparison()
 		return
 	}
-	a.site, a.plan, a.report = res.site, res.plan, res.report
-	a.pubPlan, a.pubReport = res.plan, res.report
-	a.heat = heatOverlay(res.site, res.report)
+	a.planning.site, a.planning.plan, a.planning.report = res.site, res.plan, res.report
+	a.planning.pubPlan, a.planning.pubReport = res.plan, res.report
+	a.planning.heat = heatOverlay(res.site, res.report)
 	a.setBusy(false)
-	if a.focus >= 0 {
-		if _, ok := res.report.ExitFor(a.focus); !ok {
-			a.focus = -1
+	if a.playback.focus >= 0 {
+		if _, ok := res.report.ExitFor(a.playback.focus); !ok {
+			a.playback.focus = -1
 		}
 	}
 	a.rebuildReplay()
@@ -169,13 +189,13 @@ func (a *App) publish(gen uint64, res planResult) {
 }
 
 func (a *App) publishComparison(c *comparison) {
-	a.comparison = c
+	a.planning.comparison = c
 	a.refreshComparison()
 }
 
 // setBusy shows or hides the "planning…" state.
 func (a *App) setBusy(b bool) {
-	a.busy = b
+	a.planning.busy = b
 	if a.w.busyBar == nil {
 		return
 	}
@@ -186,7 +206,7 @@ func (a *App) setBusy(b bool) {
 	} else {
 		a.w.busyBar.Stop()
 		a.w.busyBar.Hide()
-		if a.planErr == nil && a.report != nil {
+		if a.planning.err == nil && a.planning.report != nil {
 			a.w.busyLabel.SetText("plan up to date")
 		} else {
 			a.w.busyLabel.SetText("")

@@ -3,20 +3,17 @@ package ui
 import (
 	"fmt"
 	"math"
-	"sort"
 	"strings"
 
 	"fyne.io/fyne/v2"
 	fcanvas "fyne.io/fyne/v2/canvas"
 	"fyne.io/fyne/v2/container"
 	"fyne.io/fyne/v2/layout"
-	"fyne.io/fyne/v2/theme"
 	"fyne.io/fyne/v2/widget"
 
 	"duosweep/canvas"
 	"duosweep/engine"
 	"duosweep/engine/planners"
-	"duosweep/projects"
 )
 
 // Labels of the models in the model choice, in engine.Models order.
@@ -114,7 +111,7 @@ func (a *App) planPanel() fyne.CanvasObject {
 	)
 	hint := widget.NewLabelWithStyle("Candidates: click a header to sort, a row to replay that exit", fyne.TextAlignLeading, fyne.TextStyle{Italic: true})
 	hint.Truncation = fyne.TextTruncateEllipsis
-	split := container.NewVSplit(container.NewVScroll(top), container.NewBorder(hint, nil, nil, nil, a.candidateTable()))
+	split := container.NewVSplit(container.NewVScroll(top), container.NewBorder(hint, nil, nil, nil, a.table.build(a.replayExit)))
 	split.Offset = 0.68
 	return split
 }
@@ -154,13 +151,13 @@ func (a *App) setModel(m engine.Model) {
 // refreshResults copies the published result into the plan panel and the canvas overlay.
 func (a *App) refreshResults() {
 	w := &a.w
-	if a.planErr != nil {
-		if a.site == nil {
+	if a.planning.err != nil {
+		if a.planning.site == nil {
 			w.errTitle.SetText("The site is not valid yet")
 		} else {
 			w.errTitle.SetText("The planner could not plan this site")
 		}
-		w.errLabel.SetText(a.planErr.Error())
+		w.errLabel.SetText(a.planning.err.Error())
 		w.errBox.Show()
 		w.emptyHint.Hide()
 		w.figures.Hide()
@@ -169,7 +166,7 @@ func (a *App) refreshResults() {
 		return
 	}
 	w.errBox.Hide()
-	s, r, p := a.site, a.report, a.plan
+	s, r, p := a.planning.site, a.planning.report, a.planning.plan
 	if len(r.Exits) == 0 {
 		w.emptyHint.Show()
 		w.figures.Hide()
@@ -180,7 +177,7 @@ func (a *App) refreshResults() {
 	w.emptyHint.Hide()
 	w.figures.Show()
 	unit := s.Unit()
-	w.worst.SetText(fmtTime(r.Worst))
+	w.worst.SetText(clockSeconds(r.Worst))
 	if r.WorstExit >= 0 {
 		w.worstExit.SetText(nodeName(s, r.WorstExit) + "  (ringed on the canvas)")
 	} else {
@@ -189,9 +186,9 @@ func (a *App) refreshResults() {
 	b := r.Bounds
 	lb3 := ""
 	if b.LB3 > 0 {
-		lb3 = "\nlast-find cover split " + fmtTime(b.LB3)
+		lb3 = "\nlast-find cover split " + clockSeconds(b.LB3)
 	}
-	w.lower.SetText(fmt.Sprintf("%s\nW = %.1f %s, L + 2·L2 = %.1f %s%s", fmtTime(b.LB), b.LB1, unit, b.LB2, unit, lb3))
+	w.lower.SetText(fmt.Sprintf("%s\nW = %.1f %s, L + 2·L2 = %.1f %s%s", clockSeconds(b.LB), b.LB1, unit, b.LB2, unit, lb3))
 	if math.IsInf(r.Worst, 1) {
 		w.gap.SetText("none (incomplete plan)")
 	} else {
@@ -200,7 +197,7 @@ func (a *App) refreshResults() {
 	if r.HasExpected {
 		w.expectedKey.Show()
 		w.expected.Show()
-		w.expected.SetText(fmtTime(r.Expected))
+		w.expected.SetText(clockSeconds(r.Expected))
 	} else {
 		w.expectedKey.Hide()
 		w.expected.Hide()
@@ -227,22 +224,17 @@ func (a *App) refreshResults() {
 // refreshTable redraws the legend and the candidate table for the current report.
 func (a *App) refreshTable() {
 	a.refreshLegend()
-	a.sortExits()
-	a.w.table.Refresh()
-}
-
-// fmtTime is "mm:ss (123.4 s)".
-func fmtTime(sec float64) string {
-	if math.IsInf(sec, 0) || math.IsNaN(sec) {
-		return projects.FormatDuration(sec)
+	if a.planning.err != nil {
+		a.table.show(nil, nil)
+		return
 	}
-	return fmt.Sprintf("%s (%.1f s)", projects.FormatDuration(sec), sec)
+	a.table.show(a.planning.site, a.planning.report)
 }
 
 // heatOverlay is the per-report part of the canvas overlay: evacuation time per candidate, the worst
 // exit and the unvisited candidates.
 func heatOverlay(s *engine.Site, r *engine.Report) canvas.Overlay {
-	o := noHeat()
+	o := canvas.NoOverlay()
 	o.Evac = make([]float64, s.N)
 	for i := range o.Evac {
 		o.Evac[i] = math.NaN()
@@ -255,9 +247,6 @@ func heatOverlay(s *engine.Site, r *engine.Report) canvas.Overlay {
 	o.Unvisited = append([]int(nil), r.Unvisited...)
 	return o
 }
-
-// noHeat is an overlay with nothing highlighted.
-func noHeat() canvas.Overlay { return canvas.Overlay{Worst: -1, Focus: -1} }
 
 const legendSteps = 24
 
@@ -284,149 +273,10 @@ func (a *App) legend() fyne.CanvasObject {
 
 // refreshLegend shows the scale of the current report, and hides it when there is nothing coloured.
 func (a *App) refreshLegend() {
-	if a.report == nil || a.planErr != nil || len(a.report.Exits) == 0 {
+	if a.planning.report == nil || a.planning.err != nil || len(a.planning.report.Exits) == 0 {
 		a.w.legend.Hide()
 		return
 	}
-	a.w.legendHi.SetText(projects.FormatDuration(finiteMax(a.report)))
+	a.w.legendHi.SetText(clock(finiteMax(a.planning.report)))
 	a.w.legend.Show()
-}
-
-// Columns of the candidate table.
-var exitColumns = []string{"Node", "Found at", "Finder", "Evacuated at"}
-
-// candidateTable is the sortable per-candidate table of the current report.
-func (a *App) candidateTable() fyne.CanvasObject {
-	w := &a.w
-	t := widget.NewTable(
-		func() (int, int) { return len(a.exitRows), len(exitColumns) },
-		func() fyne.CanvasObject {
-			l := widget.NewLabel("")
-			l.Truncation = fyne.TextTruncateEllipsis
-			return l
-		},
-		func(id widget.TableCellID, o fyne.CanvasObject) {
-			o.(*widget.Label).SetText(a.exitCell(id.Row, id.Col))
-		},
-	)
-	t.ShowHeaderRow = true
-	t.CreateHeader = func() fyne.CanvasObject {
-		b := widget.NewButton("", nil)
-		b.Importance = widget.LowImportance
-		b.Alignment = widget.ButtonAlignLeading
-		return b
-	}
-	t.UpdateHeader = func(id widget.TableCellID, o fyne.CanvasObject) {
-		b := o.(*widget.Button)
-		col := id.Col
-		if col < 0 || col >= len(exitColumns) {
-			b.SetText("")
-			b.OnTapped = nil
-			return
-		}
-		text := exitColumns[col]
-		b.Icon = nil
-		if col == a.sortCol {
-			if a.sortDesc {
-				b.Icon = theme.MenuDropDownIcon()
-			} else {
-				b.Icon = theme.MenuDropUpIcon()
-			}
-		}
-		b.SetText(text)
-		b.OnTapped = func() { a.sortBy(col) }
-	}
-	t.OnSelected = func(id widget.TableCellID) {
-		if id.Row >= 0 && id.Row < len(a.exitRows) && a.report != nil {
-			a.replayExit(a.report.Exits[a.exitRows[id.Row]].Node)
-		}
-		t.UnselectAll()
-	}
-	widths := []float32{130, 90, 80, 110}
-	for i, wd := range widths {
-		t.SetColumnWidth(i, wd)
-	}
-	w.table = t
-	return t
-}
-
-// sortBy sorts the table by column col; a second click on the same column reverses the order.
-func (a *App) sortBy(col int) {
-	if a.sortCol == col {
-		a.sortDesc = !a.sortDesc
-	} else {
-		a.sortCol, a.sortDesc = col, false
-	}
-	a.sortExits()
-	a.w.table.Refresh()
-}
-
-// sortExits orders a.exitRows (indices into report.Exits) by the chosen column; ties by node index.
-func (a *App) sortExits() {
-	a.exitRows = a.exitRows[:0]
-	if a.report == nil || a.planErr != nil {
-		return
-	}
-	r := a.report
-	for i := range r.Exits {
-		a.exitRows = append(a.exitRows, i)
-	}
-	key := func(i int) (float64, string) {
-		ex := r.Exits[i]
-		switch a.sortCol {
-		case 1:
-			return ex.FoundAt, ""
-		case 2:
-			return 0, a.finderName(ex.Finder)
-		case 3:
-			return ex.EvacAt, ""
-		}
-		return float64(ex.Node), "" // scenario order
-	}
-	sort.SliceStable(a.exitRows, func(x, y int) bool {
-		i, j := a.exitRows[x], a.exitRows[y]
-		fi, si := key(i)
-		fj, sj := key(j)
-		less, more := fi < fj || (fi == fj && si < sj), fi > fj || (fi == fj && si > sj)
-		if a.sortDesc {
-			less, more = more, less
-		}
-		if less || more {
-			return less
-		}
-		return r.Exits[i].Node < r.Exits[j].Node
-	})
-}
-
-func (a *App) finderName(f int) string {
-	switch f {
-	case engine.Both:
-		return "both"
-	case engine.Nobody:
-		return "nobody"
-	}
-	return a.site.Names[f]
-}
-
-// exitCell is the text of one table cell.
-func (a *App) exitCell(row, col int) string {
-	if a.report == nil || row >= len(a.exitRows) {
-		return ""
-	}
-	ex := a.report.Exits[a.exitRows[row]]
-	switch col {
-	case 0:
-		mark := ""
-		if ex.Node == a.report.WorstExit {
-			mark = " ◆"
-		}
-		return nodeName(a.site, ex.Node) + mark
-	case 1:
-		return projects.FormatDuration(ex.FoundAt)
-	case 2:
-		return a.finderName(ex.Finder)
-	case 3:
-		return projects.FormatDuration(ex.EvacAt)
-	}
-	return ""
 }

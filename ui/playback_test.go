@@ -32,17 +32,17 @@ func checkAgentsAt(t *testing.T, h *harness, rp *engine.Replay) {
 		t.Fatalf("%d agents drawn, want 2", len(ov.Agents))
 	}
 	for ag := 0; ag < 2; ag++ {
-		want := a.editor.PointXY(rp.Position(ag, a.t))
+		want := a.editor.PointXY(rp.Position(ag, a.playback.t))
 		got := a.editor.PointXY(ov.Agents[ag].At)
 		if !posNear(got, want) {
-			t.Fatalf("t=%.2f agent %d drawn at %v, engine replay at %v", a.t, ag, got, want)
+			t.Fatalf("t=%.2f agent %d drawn at %v, engine replay at %v", a.playback.t, ag, got, want)
 		}
 		tr := ov.Agents[ag].Trail
 		if len(tr) == 0 || !posNear(a.editor.PointXY(tr[len(tr)-1]), want) {
-			t.Fatalf("t=%.2f agent %d: trail does not end at the agent", a.t, ag)
+			t.Fatalf("t=%.2f agent %d: trail does not end at the agent", a.playback.t, ag)
 		}
-		if ov.Agents[ag].Informed != rp.Informed(ag, a.t) {
-			t.Fatalf("t=%.2f agent %d informed %v, engine %v", a.t, ag, ov.Agents[ag].Informed, rp.Informed(ag, a.t))
+		if ov.Agents[ag].Informed != rp.Informed(ag, a.playback.t) {
+			t.Fatalf("t=%.2f agent %d informed %v, engine %v", a.playback.t, ag, ov.Agents[ag].Informed, rp.Informed(ag, a.playback.t))
 		}
 	}
 }
@@ -57,16 +57,16 @@ func TestAgentsAtSliderTimeMatchEngineReplay(t *testing.T) {
 				h.wait()
 			}
 			_, rp := engineReplay(t, m, -1)
-			if a.replay.Exit != rp.Exit || !near(a.replay.End, rp.End) {
-				t.Fatalf("window replays exit %d (end %v), engine worst exit %d (end %v)", a.replay.Exit, a.replay.End, rp.Exit, rp.End)
+			if a.playback.replay.Exit != rp.Exit || !near(a.playback.replay.End, rp.End) {
+				t.Fatalf("window replays exit %d (end %v), engine worst exit %d (end %v)", a.playback.replay.Exit, a.playback.replay.End, rp.Exit, rp.End)
 			}
-			if !near(a.w.slider.Max, a.report.Worst) {
-				t.Fatalf("slider max %v, want the worst case %v", a.w.slider.Max, a.report.Worst)
+			if !near(a.w.slider.Max, a.planning.report.Worst) {
+				t.Fatalf("slider max %v, want the worst case %v", a.w.slider.Max, a.planning.report.Worst)
 			}
 			for _, f := range []float64{0, 0.013, 0.25, 0.5, 0.77, 0.9, 0.999, 1} {
 				a.w.slider.SetValue(f * a.w.slider.Max) // as a user drags it
-				if math.Abs(a.t-a.w.slider.Value) > 1e-9 {
-					t.Fatalf("slider %v but playback time %v", a.w.slider.Value, a.t)
+				if math.Abs(a.playback.t-a.w.slider.Value) > 1e-9 {
+					t.Fatalf("slider %v but playback time %v", a.w.slider.Value, a.playback.t)
 				}
 				checkAgentsAt(t, h, rp)
 			}
@@ -90,43 +90,43 @@ func TestPlaybackFramesFollowTheClock(t *testing.T) {
 	a := h.app
 	_, rp := engineReplay(t, engine.Radio, -1)
 	a.togglePlay()
-	if !a.playing || a.w.play.Icon.Name() == "" {
+	if !a.playback.playing || a.w.play.Icon.Name() == "" {
 		t.Fatal("not playing")
 	}
 	a.setTime(0)
-	rate := a.tMax / PlaySeconds // 1×
+	rate := a.playback.tMax / PlaySeconds // 1×
 	h.clock.advance(0.5)
-	a.anim.Tick(0.1) // the tick fraction is ignored: frames follow wall-clock time
-	if !near(a.t, 0.5*rate) {
-		t.Fatalf("after 0.5 s at 1×: t=%v, want %v", a.t, 0.5*rate)
+	a.playback.anim.Tick(0.1) // the tick fraction is ignored: frames follow wall-clock time
+	if !near(a.playback.t, 0.5*rate) {
+		t.Fatalf("after 0.5 s at 1×: t=%v, want %v", a.playback.t, 0.5*rate)
 	}
 	checkAgentsAt(t, h, rp)
 	a.w.speed.SetSelected("16×")
 	h.clock.advance(0.25)
-	a.anim.Tick(0.2)
-	if want := 0.5*rate + 0.25*16*rate; !near(a.t, want) {
-		t.Fatalf("after 0.25 s at 16×: t=%v, want %v", a.t, want)
+	a.playback.anim.Tick(0.2)
+	if want := 0.5*rate + 0.25*16*rate; !near(a.playback.t, want) {
+		t.Fatalf("after 0.25 s at 16×: t=%v, want %v", a.playback.t, want)
 	}
 	checkAgentsAt(t, h, rp)
-	if got := a.w.slider.Value; !near(got, a.t) {
-		t.Fatalf("slider %v, time %v", got, a.t)
+	if got := a.w.slider.Value; !near(got, a.playback.t) {
+		t.Fatalf("slider %v, time %v", got, a.playback.t)
 	}
 	// the event list follows: the selected row is the last event at or before t
 	h.clock.advance(PlaySeconds)
-	a.anim.Tick(0.3)
-	if a.playing || a.t != a.tMax {
-		t.Fatalf("at the end: playing %v t=%v max %v", a.playing, a.t, a.tMax)
+	a.playback.anim.Tick(0.3)
+	if a.playback.playing || a.playback.t != a.playback.tMax {
+		t.Fatalf("at the end: playing %v t=%v max %v", a.playback.playing, a.playback.t, a.playback.tMax)
 	}
 	if i := a.currentEvent(); i != len(rp.Events)-1 {
 		t.Fatalf("current event %d at the end, want the last (%d)", i, len(rp.Events)-1)
 	}
 	// play again restarts from 0
 	a.togglePlay()
-	if a.t != 0 || !a.playing {
-		t.Fatalf("replay from the end: t=%v playing %v", a.t, a.playing)
+	if a.playback.t != 0 || !a.playback.playing {
+		t.Fatalf("replay from the end: t=%v playing %v", a.playback.t, a.playback.playing)
 	}
 	a.togglePlay()
-	if a.playing {
+	if a.playback.playing {
 		t.Fatal("pause did not stop")
 	}
 }
@@ -138,25 +138,25 @@ func TestStepToNextEvent(t *testing.T) {
 	a.setTime(0)
 	seen := 0
 	for i := 0; i < len(rp.Events)+1; i++ {
-		prev := a.t
+		prev := a.playback.t
 		a.stepNext()
-		if a.t <= prev && a.t != a.tMax {
-			t.Fatalf("step %d did not move forward (t=%v)", i, a.t)
+		if a.playback.t <= prev && a.playback.t != a.playback.tMax {
+			t.Fatalf("step %d did not move forward (t=%v)", i, a.playback.t)
 		}
-		for seen < len(rp.Events) && rp.Events[seen].T <= a.t+1e-9 {
+		for seen < len(rp.Events) && rp.Events[seen].T <= a.playback.t+1e-9 {
 			seen++
 		}
 		if seen > 0 && a.currentEvent() != seen-1 {
-			t.Fatalf("t=%v: current event %d, want %d", a.t, a.currentEvent(), seen-1)
+			t.Fatalf("t=%v: current event %d, want %d", a.playback.t, a.currentEvent(), seen-1)
 		}
 	}
-	if a.t != a.tMax {
-		t.Fatalf("stepping past the last event ends at %v, want %v", a.t, a.tMax)
+	if a.playback.t != a.playback.tMax {
+		t.Fatalf("stepping past the last event ends at %v, want %v", a.playback.t, a.playback.tMax)
 	}
 	// selecting an event in the list jumps there
 	a.w.events.Select(0)
-	if a.t != rp.Events[0].T {
-		t.Fatalf("event click: t=%v want %v", a.t, rp.Events[0].T)
+	if a.playback.t != rp.Events[0].T {
+		t.Fatalf("event click: t=%v want %v", a.playback.t, rp.Events[0].T)
 	}
 }
 
@@ -164,18 +164,18 @@ func TestTappedCandidateIsReplayed(t *testing.T) {
 	h := newHarness(t, "")
 	a := h.app
 	var other int = -1
-	for _, ex := range a.report.Exits {
-		if ex.Node != a.report.WorstExit && ex.Finder != engine.Nobody {
+	for _, ex := range a.planning.report.Exits {
+		if ex.Node != a.planning.report.WorstExit && ex.Finder != engine.Nobody {
 			other = ex.Node
 			break
 		}
 	}
 	a.editor.OnNodeTapped(other)
 	_, rp := engineReplay(t, engine.Radio, other)
-	if a.replay.Exit != other || a.editor.Overlay().Focus != other {
-		t.Fatalf("tapped %d, replaying %d", other, a.replay.Exit)
+	if a.playback.replay.Exit != other || a.editor.Overlay().Focus != other {
+		t.Fatalf("tapped %d, replaying %d", other, a.playback.replay.Exit)
 	}
-	if a.editor.Overlay().Worst != a.report.WorstExit {
+	if a.editor.Overlay().Worst != a.planning.report.WorstExit {
 		t.Fatal("the worst exit is no longer marked")
 	}
 	a.setTime(rp.End / 2)
@@ -183,17 +183,17 @@ func TestTappedCandidateIsReplayed(t *testing.T) {
 	// tapping a non-candidate (the start) changes nothing
 	s, _ := engine.NewSite(projects.Demo())
 	a.editor.OnNodeTapped(s.Start)
-	if a.replay.Exit != other {
+	if a.playback.replay.Exit != other {
 		t.Fatal("tapping the start changed the replay")
 	}
 	// the focus survives a replan; "Replay worst exit" goes back
 	a.w.model.SetSelected("Face to face")
 	h.wait()
-	if a.replay.Exit != other {
-		t.Fatalf("after a model switch replaying %d, want %d", a.replay.Exit, other)
+	if a.playback.replay.Exit != other {
+		t.Fatalf("after a model switch replaying %d, want %d", a.playback.replay.Exit, other)
 	}
 	a.replayExit(-1)
-	if a.replay.Exit != a.report.WorstExit {
+	if a.playback.replay.Exit != a.planning.report.WorstExit {
 		t.Fatal("not back on the worst exit")
 	}
 }

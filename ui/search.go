@@ -16,7 +16,6 @@ import (
 	"duosweep/engine"
 	"duosweep/engine/planners"
 	"duosweep/engine/search"
-	"duosweep/projects"
 )
 
 // The "search for a better plan" action of the plan panel: it runs the engine's search planners
@@ -142,7 +141,8 @@ func (a *App) searchPanel() fyne.CanvasObject {
 
 // searchable reports whether the plan on screen is a valid, up-to-date plan a search can start from.
 func (a *App) searchable() bool {
-	return !a.busy && a.planErr == nil && a.site != nil && a.report != nil && len(a.report.Exits) > 0
+	p := &a.planning
+	return !p.busy && p.err == nil && p.site != nil && p.report != nil && len(p.report.Exits) > 0
 }
 
 // refreshSearch enables the search buttons when a search can start, and explains why "prove best of
@@ -155,15 +155,15 @@ func (a *App) refreshSearch() {
 	ok := a.searchable() && !a.search.running
 	setEnabled(sw.run, ok)
 	proveOK := ok
-	if a.site != nil && a.planErr == nil {
-		if err := search.CheckExhaustiveSize(a.site); err != nil {
+	if site := a.planning.site; site != nil && a.planning.err == nil {
+		if err := search.CheckExhaustiveSize(site); err != nil {
 			proveOK = false
 			nc, ns := 0, 0
-			for v := 0; v < a.site.N; v++ {
-				if a.site.Candidate[v] {
+			for v := 0; v < site.N; v++ {
+				if site.Candidate[v] {
 					nc++
 				}
-				if a.site.InSearch[v] {
+				if site.InSearch[v] {
 					ns++
 				}
 			}
@@ -204,12 +204,12 @@ func (a *App) startSearch(planner string) {
 	st.gen++
 	gen := st.gen
 	st.cancel, st.running, st.result = cancel, true, nil
-	site, m, budget, iters := a.site, a.model, st.budget, st.iterations
+	site, m, budget, iters := a.planning.site, a.model, st.budget, st.iterations
 	// the best published plan: the plan on screen when it is the "best available" one
 	var base *engine.Plan
 	var baseR *engine.Report
-	if a.planner == "" && a.pubPlan != nil {
-		base, baseR = a.pubPlan, a.pubReport
+	if a.planner == "" && a.planning.pubPlan != nil {
+		base, baseR = a.planning.pubPlan, a.planning.pubReport
 	}
 	sw := &a.w.search
 	sw.bar.SetValue(0)
@@ -258,7 +258,7 @@ func (a *App) showSearchProgress(p planners.Progress) {
 	if math.IsInf(p.Best, 0) || math.IsNaN(p.Best) {
 		sw.best.SetText("no complete plan yet")
 	} else {
-		sw.best.SetText("best so far " + projects.FormatDuration(p.Best))
+		sw.best.SetText("best so far " + clock(p.Best))
 	}
 }
 
@@ -321,7 +321,7 @@ func (a *App) finishSearch(res *searchResult) {
 		name = "exhaustive search"
 	}
 	sw.baseKey.SetText("Best published planner")
-	sw.baseVal.SetText(fmt.Sprintf("%s: %s, gap %s", res.base.Planner, projects.FormatDuration(res.baseR.Worst), gapText(res.baseR)))
+	sw.baseVal.SetText(fmt.Sprintf("%s: %s, gap %s", res.base.Planner, clock(res.baseR.Worst), gapText(res.baseR)))
 	sw.resKey.SetText("Search result")
 	proof := ""
 	if res.planner == "exhaustive" {
@@ -333,11 +333,11 @@ func (a *App) finishSearch(res *searchResult) {
 			proof = ", not proven (stopped)"
 		}
 	}
-	sw.resVal.SetText(fmt.Sprintf("%s: %s, gap %s%s", name, projects.FormatDuration(res.report.Worst), gapText(res.report), proof))
+	sw.resVal.SetText(fmt.Sprintf("%s: %s, gap %s%s", name, clock(res.report.Worst), gapText(res.report), proof))
 	gain := res.baseR.Worst - res.report.Worst
 	better := engine.Better(res.report, res.baseR)
 	switch {
-	case gain > 1e-9*math.Max(1, res.baseR.Worst):
+	case gain > engine.Tol(res.baseR.Worst):
 		sw.verdict.SetText(fmt.Sprintf("%.1f s (%.1f %%) shorter worst case than the published plan.", gain, 100*gain/res.baseR.Worst))
 	case better:
 		sw.verdict.SetText(fmt.Sprintf("Same worst case, %.1f s shorter expected time than the published plan.", res.baseR.Expected-res.report.Expected))
@@ -371,14 +371,14 @@ func gapText(r *engine.Report) string {
 // table, playback and the itinerary all follow it until the next edit.
 func (a *App) useSearchPlan() {
 	res := a.search.result
-	if res == nil || res.site != a.site || res.model != a.model {
+	if res == nil || res.site != a.planning.site || res.model != a.model {
 		return
 	}
-	a.plan, a.report = res.plan, res.report
-	a.heat = heatOverlay(a.site, a.report)
-	if a.focus >= 0 {
-		if _, ok := a.report.ExitFor(a.focus); !ok {
-			a.focus = -1
+	a.planning.plan, a.planning.report = res.plan, res.report
+	a.planning.heat = heatOverlay(a.planning.site, a.planning.report)
+	if a.playback.focus >= 0 {
+		if _, ok := a.planning.report.ExitFor(a.playback.focus); !ok {
+			a.playback.focus = -1
 		}
 	}
 	a.search.inUse = true

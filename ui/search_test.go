@@ -55,7 +55,7 @@ func TestSearchNeverWorseThanPublishedAndUseThisPlan(t *testing.T) {
 			a := h.app
 			a.search.iterations = 3000 // a short, deterministic run (the budget of 5 s is not reached)
 			if m != a.model {
-				a.w.model.SetSelected(modelLabels[m])
+				a.w.model.SetSelected(m.Label())
 				h.wait()
 			}
 			if a.w.search.run.Disabled() {
@@ -90,8 +90,8 @@ func TestSearchNeverWorseThanPublishedAndUseThisPlan(t *testing.T) {
 				t.Fatalf("result table %q / %q, want %q / improve %s", a.w.search.baseVal.Text, a.w.search.resVal.Text, wantBase, projects.FormatDuration(r.Worst))
 			}
 			// until "Use this plan" the published plan stays current
-			if !near(a.report.Worst, br.Worst) {
-				t.Fatalf("current worst %v before Use, want the published %v", a.report.Worst, br.Worst)
+			if !near(a.planning.report.Worst, br.Worst) {
+				t.Fatalf("current worst %v before Use, want the published %v", a.planning.report.Worst, br.Worst)
 			}
 			if !engine.Better(r, br) {
 				// nothing better found: nothing to use
@@ -102,30 +102,30 @@ func TestSearchNeverWorseThanPublishedAndUseThisPlan(t *testing.T) {
 			}
 			test.Tap(a.w.search.use)
 			used++
-			if a.plan != res.plan {
+			if a.planning.plan != res.plan {
 				t.Fatal("Use this plan did not make the searched plan current")
 			}
-			if a.report.Worst != r.Worst || a.report.WorstExit != r.WorstExit || !reflect.DeepEqual(a.report.Exits, r.Exits) ||
-				a.report.Expected != r.Expected || a.report.RouteLengths != r.RouteLengths {
+			if a.planning.report.Worst != r.Worst || a.planning.report.WorstExit != r.WorstExit || !reflect.DeepEqual(a.planning.report.Exits, r.Exits) ||
+				a.planning.report.Expected != r.Expected || a.planning.report.RouteLengths != r.RouteLengths {
 				t.Fatalf("current report after Use differs from engine.Evaluate of the plan: worst %v/%v, exit %d/%d",
-					a.report.Worst, r.Worst, a.report.WorstExit, r.WorstExit)
+					a.planning.report.Worst, r.Worst, a.planning.report.WorstExit, r.WorstExit)
 			}
-			if a.w.worst.Text != fmtTime(r.Worst) || a.editor.Overlay().Worst != r.WorstExit {
-				t.Fatalf("panel %q / canvas worst %d, want %q / %d", a.w.worst.Text, a.editor.Overlay().Worst, fmtTime(r.Worst), r.WorstExit)
+			if a.w.worst.Text != clockSeconds(r.Worst) || a.editor.Overlay().Worst != r.WorstExit {
+				t.Fatalf("panel %q / canvas worst %d, want %q / %d", a.w.worst.Text, a.editor.Overlay().Worst, clockSeconds(r.Worst), r.WorstExit)
 			}
 			for _, ex := range r.Exits {
 				if got := a.editor.Overlay().Evac[ex.Node]; !near(got, ex.EvacAt) {
 					t.Fatalf("heat of %s is %v, engine evac %v", s.IDs[ex.Node], got, ex.EvacAt)
 				}
 			}
-			if a.replay == nil || a.replay.Exit != r.WorstExit {
+			if a.playback.replay == nil || a.playback.replay.Exit != r.WorstExit {
 				t.Fatal("playback does not replay the searched plan's worst exit")
 			}
 			// an edit plans again with the published planners
 			h.edit("longer", func(sc *engine.Scenario) error { sc.Corridors[0].Length += 5; return nil })
 			_, bp2, br2 := engineBest(t, a.editor.Scenario(), m)
-			if a.search.result != nil || a.w.search.result.Visible() || a.plan.Planner != bp2.Planner || !near(a.report.Worst, br2.Worst) {
-				t.Fatalf("after an edit: plan %s %v, want the published %s %v, search result dropped", a.plan.Planner, a.report.Worst, bp2.Planner, br2.Worst)
+			if a.search.result != nil || a.w.search.result.Visible() || a.planning.plan.Planner != bp2.Planner || !near(a.planning.report.Worst, br2.Worst) {
+				t.Fatalf("after an edit: plan %s %v, want the published %s %v, search result dropped", a.planning.plan.Planner, a.planning.report.Worst, bp2.Planner, br2.Worst)
 			}
 		})
 	}
@@ -161,7 +161,7 @@ func TestSearchCancelKeepsBestSoFar(t *testing.T) {
 	if res.report.Worst > br.Worst*(1+1e-12) {
 		t.Fatalf("cancelled search result %v worse than the published %v", res.report.Worst, br.Worst)
 	}
-	if !near(a.report.Worst, br.Worst) {
+	if !near(a.planning.report.Worst, br.Worst) {
 		t.Fatal("Cancel changed the current plan")
 	}
 }
@@ -199,8 +199,8 @@ func TestEditOrModelSwitchCancelsSearch(t *testing.T) {
 			t.Fatalf("%s: status %q", change.name, a.w.search.status.Text)
 		}
 		_, bp, br := engineBest(t, a.editor.Scenario(), a.model)
-		if a.plan.Planner != bp.Planner || !near(a.report.Worst, br.Worst) {
-			t.Fatalf("%s: current plan %s %v, want the published %s %v", change.name, a.plan.Planner, a.report.Worst, bp.Planner, br.Worst)
+		if a.planning.plan.Planner != bp.Planner || !near(a.planning.report.Worst, br.Worst) {
+			t.Fatalf("%s: current plan %s %v, want the published %s %v", change.name, a.planning.plan.Planner, a.planning.report.Worst, bp.Planner, br.Worst)
 		}
 		if a.w.search.run.Disabled() {
 			t.Fatalf("%s: search button not enabled again", change.name)
@@ -219,10 +219,10 @@ func TestProveBestOfClassOnSmallSite(t *testing.T) {
 		}
 		return nil
 	})
-	if h.app.planErr != nil {
-		t.Fatal(h.app.planErr)
+	if h.app.planning.err != nil {
+		t.Fatal(h.app.planning.err)
 	}
-	if err := search.CheckExhaustiveSize(h.app.site); err == nil {
+	if err := search.CheckExhaustiveSize(h.app.planning.site); err == nil {
 		t.Fatal("the site is within the exhaustive planner's limits; this test needs a larger site")
 	}
 	if !h.app.w.search.prove.Disabled() || !h.app.w.search.proveHint.Visible() {

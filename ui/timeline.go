@@ -14,7 +14,6 @@ import (
 
 	"duosweep/canvas"
 	"duosweep/engine"
-	"duosweep/projects"
 )
 
 // PlaySeconds is how long playback of the whole timeline takes at 1×; the speed choice scales it
@@ -26,6 +25,22 @@ var (
 	speedLabels  = []string{"0.5×", "1×", "2×", "4×", "8×", "16×"}
 	speedFactors = []float64{0.5, 1, 2, 4, 8, 16}
 )
+
+// playbackState is the replay on the canvas and where playback stands in it.
+type playbackState struct {
+	focus    int            // candidate replayed on request (OnNodeTapped), -1 for the worst exit
+	replay   *engine.Replay // nil when there is nothing to replay
+	trails   [2]trail       // the agents' trajectories of replay as polylines
+	t        float64        // playback time, in [0, tMax]
+	tMax     float64        // end of the timeline
+	speed    float64        // playback speed factor (speedFactors)
+	playing  bool
+	anim     *fyne.Animation // drives playback frames (tick)
+	lastTick time.Time       // wall-clock time of the last frame
+	syncing  bool            // true while code (not the user) moves the slider or the event list
+}
+
+func newPlaybackState() playbackState { return playbackState{focus: -1, speed: 1} }
 
 // trail is an agent's replay trajectory as a polyline: the corner points of its segments with the times
 // it passes them.
@@ -77,7 +92,7 @@ func (a *App) timelinePanel() fyne.CanvasObject {
 	w.speed = widget.NewSelect(speedLabels, func(s string) {
 		for i, l := range speedLabels {
 			if l == s {
-				a.speed = speedFactors[i]
+				a.playback.speed = speedFactors[i]
 			}
 		}
 		a.refreshRate()
@@ -88,7 +103,7 @@ func (a *App) timelinePanel() fyne.CanvasObject {
 	w.slider = widget.NewSlider(0, 1)
 	w.slider.Step = 0.001
 	w.slider.OnChanged = func(v float64) {
-		if !a.syncing {
+		if !a.playback.syncing {
 			a.setTime(v)
 		}
 	}
@@ -98,10 +113,10 @@ func (a *App) timelinePanel() fyne.CanvasObject {
 
 	w.events = widget.NewList(
 		func() int {
-			if a.replay == nil {
+			if a.playback.replay == nil {
 				return 0
 			}
-			return len(a.replay.Events)
+			return len(a.playback.replay.Events)
 		},
 		func() fyne.CanvasObject {
 			l := widget.NewLabel("")
@@ -109,19 +124,19 @@ func (a *App) timelinePanel() fyne.CanvasObject {
 			return l
 		},
 		func(i widget.ListItemID, o fyne.CanvasObject) {
-			if a.replay == nil || i >= len(a.replay.Events) {
+			if a.playback.replay == nil || i >= len(a.playback.replay.Events) {
 				return
 			}
-			ev := a.replay.Events[i]
-			o.(*widget.Label).SetText(fmt.Sprintf("%s  %s — %s", projects.FormatDuration(ev.T), ev.Kind, ev.Text))
+			ev := a.playback.replay.Events[i]
+			o.(*widget.Label).SetText(fmt.Sprintf("%s  %s — %s", clock(ev.T), ev.Kind, ev.Text))
 		},
 	)
 	w.events.OnSelected = func(i widget.ListItemID) {
-		if a.syncing || a.replay == nil || i >= len(a.replay.Events) {
+		if a.playback.syncing || a.playback.replay == nil || i >= len(a.playback.replay.Events) {
 			return
 		}
 		a.stop()
-		a.setTime(a.replay.Events[i].T)
+		a.setTime(a.playback.replay.Events[i].T)
 	}
 
 	controls := container.NewHBox(w.rewind, w.play, w.next, w.speed, w.rate, w.worstBtn)
@@ -130,7 +145,7 @@ func (a *App) timelinePanel() fyne.CanvasObject {
 		container.NewBorder(nil, nil, controls, nil, w.replayInfo),
 	)
 	list := container.New(&minLayout{min: fyne.NewSize(440, 112)}, w.events)
-	a.anim = &fyne.Animation{Duration: time.Second, RepeatCount: fyne.AnimationRepeatForever, Curve: fyne.AnimationLinear, Tick: a.tick}
+	a.playback.anim = &fyne.Animation{Duration: time.Second, RepeatCount: fyne.AnimationRepeatForever, Curve: fyne.AnimationLinear, Tick: a.tick}
 	return container.NewBorder(nil, nil, nil, list, container.NewVBox(layout.NewSpacer(), left, layout.NewSpacer()))
 }
 
@@ -154,35 +169,35 @@ func (l *minLayout) MinSize(objs []fyne.CanvasObject) fyne.Size {
 
 // replayExit replays the exit at node v, or the worst exit for v < 0.
 func (a *App) replayExit(v int) {
-	a.focus = v
+	a.playback.focus = v
 	a.rebuildReplay()
 }
 
 // nodeTapped replays a tapped candidate (OnNodeTapped of the canvas).
 func (a *App) nodeTapped(v int) {
-	if a.report == nil {
+	if a.planning.report == nil {
 		return
 	}
-	if _, ok := a.report.ExitFor(v); ok {
+	if _, ok := a.planning.report.ExitFor(v); ok {
 		a.replayExit(v)
 	}
 }
 
 // rebuildReplay builds the replay of the focused (or worst) exit of the current plan.
 func (a *App) rebuildReplay() {
-	if a.report == nil || a.plan == nil {
+	if a.planning.report == nil || a.planning.plan == nil {
 		a.setReplay(nil)
 		return
 	}
-	exit := a.focus
+	exit := a.playback.focus
 	if exit < 0 {
-		exit = a.report.WorstExit
+		exit = a.planning.report.WorstExit
 	}
 	if exit < 0 {
 		a.setReplay(nil)
 		return
 	}
-	rp, err := engine.NewReplay(a.site, a.plan, a.model, exit)
+	rp, err := engine.NewReplay(a.planning.site, a.planning.plan, a.model, exit)
 	if err != nil {
 		a.setReplay(nil)
 		a.setStatus(err.Error())
@@ -193,46 +208,46 @@ func (a *App) rebuildReplay() {
 
 // setReplay installs a replay (nil: none) and redraws at the current time, clamped to the new range.
 func (a *App) setReplay(rp *engine.Replay) {
-	a.replay = rp
-	a.tMax = 0
+	a.playback.replay = rp
+	a.playback.tMax = 0
 	if rp != nil {
-		a.trails = [2]trail{newTrail(rp.Trajectory(0)), newTrail(rp.Trajectory(1))}
-		a.tMax = finiteMax(a.report)
-		if !math.IsInf(rp.End, 0) && rp.End > a.tMax {
-			a.tMax = rp.End
+		a.playback.trails = [2]trail{newTrail(rp.Trajectory(0)), newTrail(rp.Trajectory(1))}
+		a.playback.tMax = finiteMax(a.planning.report)
+		if !math.IsInf(rp.End, 0) && rp.End > a.playback.tMax {
+			a.playback.tMax = rp.End
 		}
 		if math.IsInf(rp.End, 0) {
 			for ag := 0; ag < 2; ag++ {
-				a.tMax = math.Max(a.tMax, rp.Trajectory(ag).End)
+				a.playback.tMax = math.Max(a.playback.tMax, rp.Trajectory(ag).End)
 			}
 		}
 	} else {
 		a.stop()
 	}
 	if a.w.slider != nil {
-		a.syncing = true
-		a.w.slider.Max = math.Max(a.tMax, 1e-9)
-		a.w.slider.Step = math.Max(a.tMax/2000, 1e-6)
-		a.syncing = false
+		a.playback.syncing = true
+		a.w.slider.Max = math.Max(a.playback.tMax, 1e-9)
+		a.w.slider.Step = math.Max(a.playback.tMax/2000, 1e-6)
+		a.playback.syncing = false
 		a.w.events.UnselectAll()
 		a.w.events.Refresh()
 	}
 	a.refreshReplayInfo()
 	a.refreshRate()
-	a.setTime(math.Min(a.t, a.tMax))
+	a.setTime(math.Min(a.playback.t, a.playback.tMax))
 }
 
 func (a *App) refreshReplayInfo() {
 	if a.w.replayInfo == nil {
 		return
 	}
-	rp := a.replay
+	rp := a.playback.replay
 	if rp == nil {
 		a.w.replayInfo.SetText("Nothing to replay")
 		return
 	}
 	which := "tap a candidate to replay it instead"
-	if a.report != nil && rp.Exit == a.report.WorstExit {
+	if a.planning.report != nil && rp.Exit == a.planning.report.WorstExit {
 		which = "the worst case; " + which
 	}
 	how := ""
@@ -240,11 +255,11 @@ func (a *App) refreshReplayInfo() {
 	case engine.Nobody:
 		how = ": never found"
 	case engine.Both:
-		how = fmt.Sprintf(": found by both at %s", projects.FormatDuration(rp.Result.FoundAt))
+		how = fmt.Sprintf(": found by both at %s", clock(rp.Result.FoundAt))
 	default:
-		how = fmt.Sprintf(": found by %s at %s", a.site.Names[f], projects.FormatDuration(rp.Result.FoundAt))
+		how = fmt.Sprintf(": found by %s at %s", finderName(a.planning.site, f), clock(rp.Result.FoundAt))
 	}
-	a.w.replayInfo.SetText(fmt.Sprintf("Exit at %s%s (%s)", nodeName(a.site, rp.Exit), how, which))
+	a.w.replayInfo.SetText(fmt.Sprintf("Exit at %s%s (%s)", nodeName(a.planning.site, rp.Exit), how, which))
 }
 
 // setTime moves playback to t: slider, clock, event list and the agents on the canvas.
@@ -252,24 +267,24 @@ func (a *App) setTime(t float64) {
 	if t < 0 || math.IsNaN(t) {
 		t = 0
 	}
-	if t > a.tMax {
-		t = a.tMax
+	if t > a.playback.tMax {
+		t = a.playback.tMax
 	}
-	a.t = t
+	a.playback.t = t
 	if a.w.slider != nil {
-		a.syncing = true
+		a.playback.syncing = true
 		a.w.slider.Value = t
 		a.w.slider.Refresh()
-		a.w.clock.SetText(projects.FormatDuration(t) + " / " + projects.FormatDuration(a.tMax))
+		a.w.clock.SetText(clock(t) + " / " + clock(a.playback.tMax))
 		a.syncEvents()
-		a.syncing = false
+		a.playback.syncing = false
 	}
 	a.drawAgents()
 }
 
 // syncEvents selects the last event at or before the current time.
 func (a *App) syncEvents() {
-	if a.replay == nil {
+	if a.playback.replay == nil {
 		return
 	}
 	i := a.currentEvent()
@@ -281,27 +296,25 @@ func (a *App) syncEvents() {
 	a.w.events.ScrollTo(i)
 }
 
-// currentEvent is the index of the last event at or before a.t, -1 before the first.
+// currentEvent is the index of the last event at or before a.playback.t, -1 before the first.
 func (a *App) currentEvent() int {
-	evs := a.replay.Events
-	return sort.Search(len(evs), func(i int) bool { return evs[i].T > a.t+tolT(a.t) }) - 1
+	evs := a.playback.replay.Events
+	return sort.Search(len(evs), func(i int) bool { return evs[i].T > a.playback.t+engine.Tol(a.playback.t) }) - 1
 }
-
-func tolT(t float64) float64 { return 1e-9 * math.Max(1, math.Abs(t)) }
 
 // agentsAt returns the agent marks of the current replay at time t.
 func (a *App) agentsAt(t float64) []canvas.AgentMark {
-	if a.replay == nil {
+	if a.playback.replay == nil {
 		return nil
 	}
 	marks := make([]canvas.AgentMark, 2)
 	for ag := 0; ag < 2; ag++ {
-		pos := a.replay.Position(ag, t)
+		pos := a.playback.replay.Position(ag, t)
 		marks[ag] = canvas.AgentMark{
-			Name:     a.site.Names[ag],
+			Name:     a.planning.site.Names[ag],
 			At:       pos,
-			Trail:    a.trails[ag].upTo(t, pos),
-			Informed: a.replay.Informed(ag, t),
+			Trail:    a.playback.trails[ag].upTo(t, pos),
+			Informed: a.playback.replay.Informed(ag, t),
 		}
 	}
 	return marks
@@ -309,45 +322,44 @@ func (a *App) agentsAt(t float64) []canvas.AgentMark {
 
 // drawAgents hands the canvas the heat overlay plus the agents at the current time.
 func (a *App) drawAgents() {
-	o := a.heat
-	if a.replay != nil {
-		o.Focus = a.replay.Exit
-		o.Agents = a.agentsAt(a.t)
-		res := a.replay.Result
-		if a.replay.Model == engine.FaceToFace && res.Finder >= 0 && res.Finder < 2 && a.t >= res.MeetAt-tolT(res.MeetAt) {
+	o := a.planning.heat
+	if a.playback.replay != nil {
+		o.Focus = a.playback.replay.Exit
+		o.Agents = a.agentsAt(a.playback.t)
+		res := a.playback.replay.Result
+		if a.playback.replay.Model == engine.FaceToFace && byOneAgent(res.Finder) && a.playback.t >= res.MeetAt-engine.Tol(res.MeetAt) {
 			mp := res.MeetPoint
 			o.Meeting = &mp
 		}
 	}
-	a.overlay = o
 	a.editor.SetOverlay(o)
 }
 
 // togglePlay starts or pauses playback; at the end it starts again from 0.
 func (a *App) togglePlay() {
-	if a.playing {
+	if a.playback.playing {
 		a.stop()
 		return
 	}
-	if a.replay == nil {
+	if a.playback.replay == nil {
 		return
 	}
-	if a.t >= a.tMax-tolT(a.tMax) {
+	if a.playback.t >= a.playback.tMax-engine.Tol(a.playback.tMax) {
 		a.setTime(0)
 	}
-	a.playing = true
-	a.lastTick = a.now()
+	a.playback.playing = true
+	a.playback.lastTick = a.now()
 	a.w.play.SetIcon(theme.MediaPauseIcon())
-	a.anim.Start()
+	a.playback.anim.Start()
 }
 
 // stop pauses playback.
 func (a *App) stop() {
-	if !a.playing {
+	if !a.playback.playing {
 		return
 	}
-	a.playing = false
-	a.anim.Stop()
+	a.playback.playing = false
+	a.playback.anim.Stop()
 	if a.w.play != nil {
 		a.w.play.SetIcon(theme.MediaPlayIcon())
 	}
@@ -356,18 +368,18 @@ func (a *App) stop() {
 // tick is the animation callback: it advances playback by the wall-clock time since the last frame
 // times the speed, and stops at the end.
 func (a *App) tick(float32) {
-	if !a.playing {
+	if !a.playback.playing {
 		return
 	}
 	now := a.now()
-	dt := now.Sub(a.lastTick).Seconds()
-	a.lastTick = now
+	dt := now.Sub(a.playback.lastTick).Seconds()
+	a.playback.lastTick = now
 	if dt <= 0 {
 		return
 	}
-	t := a.t + dt*a.rate()
-	if t >= a.tMax {
-		a.setTime(a.tMax)
+	t := a.playback.t + dt*a.rate()
+	if t >= a.playback.tMax {
+		a.setTime(a.playback.tMax)
 		a.stop()
 		return
 	}
@@ -375,7 +387,7 @@ func (a *App) tick(float32) {
 }
 
 // rate is the playback rate in site seconds per wall-clock second.
-func (a *App) rate() float64 { return a.speed * a.tMax / PlaySeconds }
+func (a *App) rate() float64 { return a.playback.speed * a.playback.tMax / PlaySeconds }
 
 // refreshRate shows the real-time factor of the chosen speed.
 func (a *App) refreshRate() {
@@ -393,16 +405,16 @@ func (a *App) refreshRate() {
 
 // stepNext jumps to the next event after the current time.
 func (a *App) stepNext() {
-	if a.replay == nil {
+	if a.playback.replay == nil {
 		return
 	}
-	for _, ev := range a.replay.Events {
-		if ev.T > a.t+tolT(a.t) {
+	for _, ev := range a.playback.replay.Events {
+		if ev.T > a.playback.t+engine.Tol(a.playback.t) {
 			a.stop()
 			a.setTime(ev.T)
 			return
 		}
 	}
 	a.stop()
-	a.setTime(a.tMax)
+	a.setTime(a.playback.tMax)
 }

@@ -400,3 +400,22 @@ func TestTidyAspectRatio(t *testing.T) {
 		t.Fatalf("path drawn %v × %v, want 0 × 40", w, h)
 	}
 }
+
+// TestLabelRoom checks the room FitView keeps for a label against values worked out by hand from the
+// spacing constants (gap 11 from a junction, 21 beside the start; 8 across and 4 along beyond the label).
+func TestLabelRoom(t *testing.T) {
+	for _, tc := range []struct {
+		w, h, margin float64
+		start        bool
+		want         Extent
+	}{
+		{40, 12, 32, false, Extent{L: 32, R: 59, T: 32, B: 32}},   // R = 11+40+8; T = 11+12+4 = 27 < 32
+		{40, 12, 32, true, Extent{L: 32, R: 69, T: 32, B: 37}},    // R = 21+40+8; B = 21+12+4
+		{120, 30, 16, false, Extent{L: 16, R: 139, T: 45, B: 16}}, // R = 11+120+8; T = 11+30+4
+		{0, 0, 32, true, Extent{L: 32, R: 32, T: 32, B: 32}},      // no label: the margin everywhere
+	} {
+		if got := LabelRoom(tc.w, tc.h, tc.margin, tc.start); got != tc.want {
+			t.Errorf("LabelRoom(%v, %v, %v, %v) = %+v, want %+v", tc.w, tc.h, tc.margin, tc.start, got, tc.want)
+		}
+	}
+}

@@ -149,3 +149,31 @@ func (p *Placer) Add(r Rect) {
 		}
 	}
 }
+
+// Spacing of junction labels, in widget units. The editor places labels with these and its FitView
+// leaves room for them, so both read them from here.
+const (
+	// NodeRadius is the radius of a junction's marker.
+	NodeRadius = 7
+	// LabelGap is the distance from a junction's centre to its label: clear of the marker.
+	LabelGap = NodeRadius + 4
+	// LabelGapMarked is the same beside the start square, the worst-exit ring or the target marker,
+	// and the distance below a marked junction kept free for its tag.
+	LabelGapMarked = 21
+	// labelPadX and labelPadY are the room LabelRoom keeps beyond a label's far side, across and
+	// along.
+	labelPadX = 8
+	labelPadY = 4
+)
+
+// LabelRoom is the room a junction with a w×h label needs on screen, at least margin on every side:
+// the label to the right and above (where LabelCandidates tries it first on an unconnected side), and
+// for the start, whose square and tag sit below, room under it and a label kept clear of them.
+func LabelRoom(w, h, margin float64, start bool) Extent {
+	ext := Extent{L: margin, R: math.Max(margin, LabelGap+w+labelPadX), T: math.Max(margin, LabelGap+h+labelPadY), B: margin}
+	if start {
+		ext.B = math.Max(margin, LabelGapMarked+h+labelPadY)
+		ext.R = math.Max(ext.R, LabelGapMarked+w+labelPadX)
+	}
+	return ext
+}

@@ -17,6 +17,8 @@ import (
 	"fyne.io/fyne/v2"
 	"fyne.io/fyne/v2/app"
 
+	// quiet start under LANG=C.UTF-8: it must initialise before fyne's lang package reads the locale
+	_ "duosweep/cmd/duosweep/internal/locale"
 	"duosweep/icons"
 	"duosweep/ui"
 )
