@@ -31,6 +31,7 @@ type editorRenderer struct {
 
 	bg        *fc.Rectangle
 	corridors corridorLayer
+	shapes    shapeLayer // closed and shaped corridors (render_shapes.go)
 	junctions junctionLayer
 	markers   markerLayer
 	agents    agentLayer
@@ -73,6 +74,7 @@ func (r *editorRenderer) Objects() []fyne.CanvasObject {
 	c, j, m, ag := &r.corridors, &r.junctions, &r.markers, &r.agents
 	o := append(r.objects[:0], r.bg, m.corrHov, m.corrSel)
 	o = appendAll(o, c.lines)
+	o = appendAll(o, r.shapes.segs)
 	o = appendAll(o, c.labels)
 	for _, t := range ag.trails {
 		o = appendAll(o, t.segs)
@@ -141,6 +143,7 @@ func (r *editorRenderer) update() {
 	r.bg.FillColor = f.bg
 	r.junctions.update(e, f, &r.grown)
 	r.corridors.update(e, f, &r.grown)
+	r.shapes.update(e, f, &r.grown)
 	r.markers.update(e, f, &r.grown)
 	r.agents.update(e, f, &r.grown)
 	r.message.update(e, f)
@@ -184,6 +187,7 @@ func (r *editorRenderer) Layout(size fyne.Size) {
 	r.markers.reserve(e, f)
 	r.junctions.layoutLabels(e, f)
 	r.corridors.layout(e, f)
+	r.shapes.layout(e, f)
 	r.markers.layout(e, f)
 	r.agents.layout(e, f)
 	r.message.layout(e, f)

@@ -87,6 +87,9 @@ func TestGeoJSONRefusals(t *testing.T) {
 }
 
 func TestGeoJSONOptions(t *testing.T) {
+	if _, err := ReadGeoJSON([]byte(fcOf(okLine, `{"type":"Feature","properties":{},"geometry":{"type":"LineString","coordinates":[[1,1],[1.01,1]]}}`)), Options{}); !errors.Is(err, ErrSeveralPieces) {
+		t.Fatalf("want ErrSeveralPieces, got %v", err)
+	}
 	// --largest keeps the longer piece and says what it dropped
 	far := `{"type":"Feature","properties":{},"geometry":{"type":"LineString","coordinates":[[1,1],[1.01,1]]}}`
 	r, err := ReadGeoJSON([]byte(fcOf(okLine, far)), Options{Largest: true})

@@ -58,7 +58,7 @@ type Result struct {
 
 // Error is an import error: Where names the feature, line or column, Msg the
 // reason. Err is the engine's *engine.FieldError when engine.NewSite refused
-// the built scenario.
+// the built scenario, or ErrSeveralPieces.
 type Error struct {
 	Where string
 	Msg   string
@@ -74,6 +74,11 @@ func (e *Error) Error() string {
 
 // Unwrap returns the engine error, if any.
 func (e *Error) Unwrap() error { return e.Err }
+
+// ErrSeveralPieces is wrapped by the error for a network in several
+// unconnected pieces (errors.Is), so that a caller can offer
+// Options.Largest.
+var ErrSeveralPieces = errors.New("the network is in several unconnected pieces")
 
 func errAt(where, format string, args ...any) error {
 	return &Error{Where: where, Msg: fmt.Sprintf(format, args...)}
@@ -339,7 +344,7 @@ func keepPieces(net *network, start int, opt Options, res *Result) (int, error) 
 		if net.geo != nil {
 			hint = " (a larger --snap may)"
 		}
-		return -1, errAt("", "the network is in %d unconnected pieces: %s. Join them%s, or keep the largest with --largest", len(pieces), list(order), hint)
+		return -1, &Error{Msg: fmt.Sprintf("the network is in %d unconnected pieces: %s. Join them%s, or keep the largest with --largest", len(pieces), list(order), hint), Err: ErrSeveralPieces}
 	}
 	keep := order[0]
 	if comp[start] != keep {

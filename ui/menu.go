@@ -141,6 +141,9 @@ func (a *App) mainMenu() *fyne.MainMenu {
 		item("Save", ctrl(fyne.KeyS), func() { a.save(nil) }),
 		item("Save as…", ctrlShift(fyne.KeyS), func() { a.saveAs(nil) }),
 		fyne.NewMenuItemSeparator(),
+		fyne.NewMenuItem("Import GeoJSON or CSV…", a.importDialog), // importexport.go
+		fyne.NewMenuItem("Export GeoJSON…", a.exportDialog),
+		fyne.NewMenuItemSeparator(),
 		item("Print itinerary…", ctrl(fyne.KeyP), a.printItinerary),
 		fyne.NewMenuItemSeparator(),
 		quit,
