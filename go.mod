@@ -3,6 +3,7 @@ module duosweep
 go 1.26
 
 require (
+	codeberg.org/go-pdf/fpdf v0.12.0 // indirect
 	fyne.io/fyne/v2 v2.7.1 // indirect
 	fyne.io/systray v1.11.1-0.20250603113521-ca66a66d8b58 // indirect
 	github.com/BurntSushi/toml v1.5.0 // indirect
@@ -32,9 +33,9 @@ require (
 	github.com/yuin/goldmark v1.7.8 // indirect
 	go.mongodb.org/mongo-driver/v2 v2.5.0 // indirect
 	go.yaml.in/yaml/v3 v3.0.5 // indirect
-	golang.org/x/image v0.25.0 // indirect
+	golang.org/x/image v0.40.0 // indirect
 	golang.org/x/net v0.35.0 // indirect
 	golang.org/x/sys v0.30.0 // indirect
-	golang.org/x/text v0.23.0 // indirect
+	golang.org/x/text v0.37.0 // indirect
 	gonum.org/v1/gonum v0.17.0 // indirect
 )

@@ -163,7 +163,53 @@ type step struct {
 	t    float64
 	text string
 	walk bool
+	// for ItinerarySteps
+	action string       // "walk", "wait", "rendezvous" or "end"
+	at     engine.Point // where the step ends
+	dist   float64      // length walked (walk steps)
 }
+
+// ItineraryStep is one numbered step of an agent's itinerary as
+// WriteItinerary prints it: Clock is the printed time (when the step is
+// done), Text the printed sentence. Action is "walk", "wait", "rendezvous" or
+// "end"; Place names the point the step ends at; Dist is the length walked
+// (0 for the other actions).
+type ItineraryStep struct {
+	T      float64
+	Clock  string
+	Action string
+	At     engine.Point
+	Place  string
+	Dist   float64
+	Text   string
+}
+
+// ItinerarySteps returns agent a's itinerary steps of plan p, the same steps
+// with the same wording and clock strings as WriteItinerary. O(waypoints · log n).
+func ItinerarySteps(s *engine.Site, p *engine.Plan, a int) []ItineraryStep {
+	steps := agentSteps(s, p.Routes[a].Waypoints, a)
+	out := make([]ItineraryStep, len(steps))
+	for i, st := range steps {
+		out[i] = ItineraryStep{T: st.t, Clock: FormatDuration(st.t), Action: st.action, At: st.at,
+			Place: pointName(s, st.at), Dist: st.dist, Text: st.text}
+	}
+	return out
+}
+
+// FormatSeconds formats a time as the itinerary prints figures: "06:12 (372.4 s)".
+func FormatSeconds(sec float64) string { return formatSeconds(sec) }
+
+// NodeName is the itinerary's name of node v: "id (label)", or the id.
+func NodeName(s *engine.Site, v int) string { return nodeName(s, v) }
+
+// PointName is the itinerary's name of a point: a node name, or "12.5 m along a–b from a".
+func PointName(s *engine.Site, p engine.Point) string { return pointName(s, p) }
+
+// ModelLine is the itinerary's one-line description of model m.
+func ModelLine(m engine.Model) string { return modelLine(m) }
+
+// FoundLine is the itinerary's rule for what happens when the exit is found under model m.
+func FoundLine(m engine.Model) string { return foundLine(m) }
 
 func agentSteps(s *engine.Site, wps []engine.Waypoint, a int) []step {
 	var out []step
@@ -189,18 +235,18 @@ func agentSteps(s *engine.Site, wps []engine.Waypoint, a int) []step {
 					text += " via " + strings.Join(via, ", ")
 				}
 			}
-			out = append(out, step{t: arrive, text: text, walk: true})
+			out = append(out, step{t: arrive, text: text, walk: true, action: "walk", at: wp.P, dist: d})
 		}
 		end := math.Max(wp.T, arrive)
 		if end-arrive > 1e-9*math.Max(1, end) {
-			out = append(out, step{t: end, text: fmt.Sprintf("wait at %s until %s (%.1f s)", pointName(s, wp.P), FormatDuration(end), end-arrive)})
+			out = append(out, step{t: end, text: fmt.Sprintf("wait at %s until %s (%.1f s)", pointName(s, wp.P), FormatDuration(end), end-arrive), action: "wait", at: wp.P})
 		}
 		if wp.Rendezvous {
-			out = append(out, step{t: end, text: fmt.Sprintf("rendezvous with %s at %s: if you do not yet know where the exit is, wait here until %s arrives (face-to-face)", partner, pointName(s, wp.P), partner)})
+			out = append(out, step{t: end, text: fmt.Sprintf("rendezvous with %s at %s: if you do not yet know where the exit is, wait here until %s arrives (face-to-face)", partner, pointName(s, wp.P), partner), action: "rendezvous", at: wp.P})
 		}
 		cur, t = p, end
 	}
-	out = append(out, step{t: t, text: fmt.Sprintf("end of route: stay at %s", pointName(s, cur))})
+	out = append(out, step{t: t, text: fmt.Sprintf("end of route: stay at %s", pointName(s, cur)), action: "end", at: cur})
 	return out
 }
 

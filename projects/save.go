@@ -196,6 +196,14 @@ func SaveDraftFile(path string, sc engine.Scenario) error {
 	return writeFileAtomic(path, func(w io.Writer) error { return SaveDraft(w, sc) })
 }
 
+// WriteFileAtomic writes path through write atomically, like SaveFile: a
+// temporary file in the same directory, synced, closed and renamed over path;
+// on any error the temporary file is removed and path is left as it was.
+// Errors start with "projects: PATH: ".
+func WriteFileAtomic(path string, write func(io.Writer) error) error {
+	return writeFileAtomic(path, write)
+}
+
 // writeHook lets tests make the write fail after the temporary file exists.
 var writeHook func(io.Writer) io.Writer
 

@@ -1,13 +1,15 @@
 #!/usr/bin/env bash
 # Checks the Debian packages Duosweep needs and installs the missing ones when
 # it can (root, or password-less sudo); otherwise prints exactly what to install.
-#   scripts/deps.sh build   # cgo + X headers: building the desktop app and -race tests
+#   scripts/deps.sh build   # cgo + X headers: building the desktop app and -race tests; poppler-utils for the PDF tests
 #   scripts/deps.sh gui     # build + Xvfb, xdotool, ImageMagick, Mesa: smoke tests and screenshots
 set -euo pipefail
 what=${1:-build}
 build_pkgs=(gcc libc6-dev pkg-config libgl-dev libx11-dev libxcursor-dev libxrandr-dev libxinerama-dev libxi-dev libxxf86vm-dev)
 gui_pkgs=(xvfb xauth imagemagick xdotool libgl1-mesa-dri libglx-mesa0)
-pkgs=("${build_pkgs[@]}")
+# poppler-utils (pdftotext, pdfinfo, pdffonts, pdftoppm): the briefing PDF tests read the PDFs back with them
+test_pkgs=(poppler-utils)
+pkgs=("${build_pkgs[@]}" "${test_pkgs[@]}")
 [ "$what" = gui ] && pkgs+=("${gui_pkgs[@]}")
 
 if ! command -v go >/dev/null 2>&1; then

@@ -145,6 +145,9 @@ func (a *App) mainMenu() *fyne.MainMenu {
 		fyne.NewMenuItem("Export GeoJSON…", a.exportDialog),
 		fyne.NewMenuItemSeparator(),
 		item("Print itinerary…", ctrl(fyne.KeyP), a.printItinerary),
+		fyne.NewMenuItem("Export briefing…", a.exportBriefing),
+		fyne.NewMenuItem("Export picture…", a.exportPicture),
+		fyne.NewMenuItem("Export animation…", a.exportAnimation),
 		fyne.NewMenuItemSeparator(),
 		quit,
 	)
