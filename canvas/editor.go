@@ -105,6 +105,7 @@ type Editor struct {
 	pointer fyne.Position
 
 	msg   message
+	bd    backdropState                   // backdrop image and calibration (backdrop.go)
 	after func(d time.Duration, f func()) // timer used to hide messages; replaced in tests
 	now   func() time.Time
 }
