@@ -3,15 +3,20 @@ SHELL := /bin/bash
 export PATH := $(PATH):/usr/local/go/bin
 GO ?= go
 
-.PHONY: run test test-short deps deps-gui build cli smoke bench package demo clean-bin
+.PHONY: run test test-short tidy-check deps deps-gui build cli smoke bench package demo clean-bin
 
 run: deps
 	$(GO) run ./cmd/duosweep
 
 # The whole suite, with the race detector (needs cgo: gcc).
-test: deps
+test: deps tidy-check
 	$(GO) vet ./...
 	$(GO) test -race -count=1 -timeout 40m ./...
+
+# go.mod and go.sum must stay tidy (direct requirements not marked // indirect); prints the diff when not.
+# Works offline with a warm module cache.
+tidy-check:
+	$(GO) mod tidy -diff
 
 test-short:
 	$(GO) test -short ./...

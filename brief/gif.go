@@ -13,7 +13,6 @@ import (
 	"sync"
 
 	"duosweep/engine"
-	"duosweep/projects"
 )
 
 // GIFOptions configure WriteGIF. The zero value gives a 640×400 animation of
@@ -137,7 +136,7 @@ func NewAnimation(in Input, opt GIFOptions) (*Animation, error) {
 		if math.IsInf(rp.End, 0) {
 			return nil, fmt.Errorf("brief: exit %q is never reached (no route visits it)", s.IDs[exit])
 		}
-		title := fmt.Sprintf("%s · exit %s · both there at %s", pin.Report.Model, s.IDs[exit], projects.FormatDuration(rp.End))
+		title := fmt.Sprintf("%s · exit %s · both there at %s", pin.Report.Model, s.IDs[exit], engine.FormatClock(rp.End))
 		m, err := BuildMap(pin, float64(pw), float64(opt.H-noticeH), MapOptions{NoRoutes: true, Title: title, Caption: true})
 		if err != nil {
 			return nil, err
@@ -186,11 +185,11 @@ func (p *Panel) Overlay(t float64) []Shape {
 		}
 	}
 	fs := m.FontSize
-	out = append(out, &Label{At: Pt{X: m.W - 0.5*fs, Y: 1.4 * fs}, Text: projects.FormatDuration(t), Size: 1.15 * fs, Color: Ink, Anchor: End, Bold: true, Class: "clock"})
+	out = append(out, &Label{At: Pt{X: m.W - 0.5*fs, Y: 1.4 * fs}, Text: engine.FormatClock(t), Size: 1.15 * fs, Color: Ink, Anchor: End, Bold: true, Class: "clock"})
 	caption := "Searching: neither agent knows where the exit is"
 	for _, ev := range rp.Events {
 		if ev.T <= t {
-			caption = projects.FormatDuration(ev.T) + "  " + ev.Text
+			caption = engine.FormatClock(ev.T) + "  " + ev.Text
 		}
 	}
 	_ = s

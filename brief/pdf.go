@@ -185,7 +185,7 @@ func Rule(in Input) ([]string, error) {
 			if ev.Kind == engine.EventMet {
 				text += "; they meet at " + projects.PointName(s, ev.At)
 			}
-			out = append(out, fmt.Sprintf("   %s  %s", projects.FormatDuration(ev.T), text))
+			out = append(out, fmt.Sprintf("   %s  %s", engine.FormatClock(ev.T), text))
 		}
 	}
 	var rv []string
@@ -195,7 +195,7 @@ func Rule(in Input) ([]string, error) {
 			return nil, err
 		}
 		for k, t := range tr.RVTime {
-			rv = append(rv, fmt.Sprintf("%s at %s, %s", s.Names[a], projects.PointName(s, tr.RVAt[k]), projects.FormatDuration(t)))
+			rv = append(rv, fmt.Sprintf("%s at %s, %s", s.Names[a], projects.PointName(s, tr.RVAt[k]), engine.FormatClock(t)))
 		}
 	}
 	if len(rv) > 0 {
@@ -386,7 +386,7 @@ func ItineraryRows(in Input, a int) [][]string {
 	}
 	var first []check
 	for _, ex := range in.Report.Exits {
-		if (ex.Finder == a || ex.Finder == engine.Both) && ex.Node != s.Start {
+		if (ex.Finder == engine.Finder(a) || ex.Finder == engine.Both) && ex.Node != s.Start {
 			first = append(first, check{ex.FoundAt, ex.Node})
 		}
 	}
@@ -437,7 +437,7 @@ func CandidateRows(in Input) [][]string {
 		case engine.Both:
 			finder = "both"
 		}
-		rows = append(rows, []string{projects.NodeName(s, ex.Node), projects.FormatDuration(ex.FoundAt), finder, projects.FormatDuration(ex.EvacAt)})
+		rows = append(rows, []string{projects.NodeName(s, ex.Node), engine.FormatClock(ex.FoundAt), finder, engine.FormatClock(ex.EvacAt)})
 	}
 	return rows
 }

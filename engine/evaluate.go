@@ -5,17 +5,43 @@ import (
 	"sort"
 )
 
-// Both is the Finder value when both agents reach the exit at the same first moment.
-const Both = 2
+// Finder says who first stands on an exit: agent 0, agent 1, both at the
+// same moment (within Tol), or nobody (no route visits it). Agent0 and
+// Agent1 are the agent indices, so a Finder of one agent indexes per-agent
+// arrays directly.
+type Finder int
 
-// Nobody is the Finder value for a candidate that no route visits.
-const Nobody = -1
+const (
+	// Nobody: no route visits the exit.
+	Nobody Finder = -1
+	// Agent0 is the first agent of the scenario.
+	Agent0 Finder = 0
+	// Agent1 is the second agent of the scenario.
+	Agent1 Finder = 1
+	// Both: both agents reach the exit at the same first moment.
+	Both Finder = 2
+)
+
+// Agent reports whether f is one agent (Agent0 or Agent1).
+func (f Finder) Agent() bool { return f == Agent0 || f == Agent1 }
+
+// Name returns the finder's display name: the agent's name from names (the
+// site's Names), "both" or "nobody".
+func (f Finder) Name(names [2]string) string {
+	switch {
+	case f == Both:
+		return "both"
+	case f.Agent():
+		return names[f]
+	}
+	return "nobody"
+}
 
 // ExitResult is what happens when the exit is at one candidate node.
 type ExitResult struct {
 	Node    int
 	FoundAt float64 // t(x); +Inf when never visited
-	Finder  int     // 0, 1, Both or Nobody
+	Finder  Finder  // Agent0, Agent1, Both or Nobody
 	EvacAt  float64 // evac(x); +Inf when never visited
 	// Face-to-face only: where and when the finder meets its partner (MeetAt
 	// is FoundAt when no meeting is needed).
@@ -99,7 +125,7 @@ func evaluateTrajectories(s *Site, trs [2]*Trajectory, planner string, m Model) 
 				continue
 			}
 			ex := &r.Exits[row[v]]
-			if ex.Finder != f {
+			if ex.Finder != Finder(f) {
 				continue
 			}
 			tl := comm.tell(s, partner, ex.Node, ex.FoundAt, sf, sp, &hint)

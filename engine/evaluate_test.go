@@ -62,7 +62,7 @@ func evalBoth(t *testing.T, s *engine.Site, p *engine.Plan) (*engine.Report, *en
 
 func near(a, b float64) bool { return math.Abs(a-b) <= 1e-9*math.Max(1, math.Abs(b)) }
 
-func wantExit(t *testing.T, rep *engine.Report, v int, found float64, finder int, evac float64) {
+func wantExit(t *testing.T, rep *engine.Report, v int, found float64, finder engine.Finder, evac float64) {
 	t.Helper()
 	ex, ok := rep.ExitFor(v)
 	if !ok {

@@ -321,7 +321,7 @@ func (tr *refTraj) posAt(start refPos, tau float64) refPos {
 type refExit struct {
 	node        int
 	found, evac float64
-	finder      int
+	finder      engine.Finder
 	tA, tB      float64
 }
 
@@ -360,7 +360,7 @@ func (rt *refTree) evaluate(p *engine.Plan, m engine.Model) (*refReport, error) 
 			if ex.tB < ex.tA {
 				f = 1
 			}
-			ex.finder = f
+			ex.finder = engine.Finder(f)
 			if m == engine.Radio {
 				q := trs[1-f].posAt(rt.node(rt.start), t)
 				ex.evac = t + rt.distNode(q, x)/rt.speed[1-f]

@@ -38,7 +38,7 @@ func (k EventKind) String() string {
 type Event struct {
 	T     float64
 	Kind  EventKind
-	Agent int // 0, 1 or Both
+	Agent Finder // Agent0, Agent1 or Both
 	At    Point
 	Text  string
 }
@@ -101,10 +101,10 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 		}
 		return rp, nil
 	}
-	f, q := ex.Finder, 1-ex.Finder
+	f, q := int(ex.Finder), 1-int(ex.Finder)
 	t := ex.FoundAt
 	rp.learn[f] = t
-	rp.Events = append(rp.Events, Event{T: t, Kind: EventFound, Agent: f, At: x,
+	rp.Events = append(rp.Events, Event{T: t, Kind: EventFound, Agent: Finder(f), At: x,
 		Text: fmt.Sprintf("%s finds the exit at %s", name(f), s.Label(exit))})
 	if !tl.met {
 		// told at a distance, the moment the exit is found
@@ -116,9 +116,9 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 		rp.full[q] = mk(r, q)
 		rp.learn[q] = t
 		rp.Events = append(rp.Events,
-			Event{T: t, Kind: EventInformed, Agent: q, At: pos, Text: fmt.Sprintf("%s radios %s, who heads for the exit (%.1f %s away)", name(f), name(q), d, s.Unit())},
-			Event{T: t, Kind: EventArrived, Agent: f, At: x, Text: name(f) + " waits at the exit"},
-			Event{T: t + d/s.Speed[q], Kind: EventArrived, Agent: q, At: x, Text: name(q) + " reaches the exit"})
+			Event{T: t, Kind: EventInformed, Agent: Finder(q), At: pos, Text: fmt.Sprintf("%s radios %s, who heads for the exit (%.1f %s away)", name(f), name(q), d, s.Unit())},
+			Event{T: t, Kind: EventArrived, Agent: Finder(f), At: x, Text: name(f) + " waits at the exit"},
+			Event{T: t + d/s.Speed[q], Kind: EventArrived, Agent: Finder(q), At: x, Text: name(q) + " reaches the exit"})
 	} else {
 		tau, meet := ex.MeetAt, ex.MeetPoint
 		dm := s.NodeDist(meet, exit)
@@ -140,8 +140,8 @@ func NewReplay(s *Site, p *Plan, m Model, exit int) (*Replay, error) {
 		}
 		rp.Events = append(rp.Events,
 			Event{T: tau, Kind: EventMet, Agent: Both, At: meet, Text: fmt.Sprintf("%s %s %s and tells them (%.1f %s from the exit)", name(f), how, name(q), dm, s.Unit())},
-			Event{T: tau + dm/s.Speed[f], Kind: EventArrived, Agent: f, At: x, Text: name(f) + " reaches the exit"},
-			Event{T: tau + dm/s.Speed[q], Kind: EventArrived, Agent: q, At: x, Text: name(q) + " reaches the exit"})
+			Event{T: tau + dm/s.Speed[f], Kind: EventArrived, Agent: Finder(f), At: x, Text: name(f) + " reaches the exit"},
+			Event{T: tau + dm/s.Speed[q], Kind: EventArrived, Agent: Finder(q), At: x, Text: name(q) + " reaches the exit"})
 	}
 	if mkErr != nil {
 		return nil, mkErr

@@ -43,7 +43,9 @@ type Site struct {
 	Prob      []float64 // probabilities (0 where absent)
 	HasProb   bool      // some node has a probability: expected times are reported
 
-	// Edges, by corridor index.
+	// Corridors, by corridor index e: end nodes EU[e] ("u", the From end
+	// as given) and EV[e] ("v", the To end), and length EW[e] ("weight").
+	// Offsets along corridor e are measured from EU[e].
 	EU, EV []int32
 	EW     []float64
 

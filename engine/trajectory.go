@@ -43,11 +43,6 @@ func NewTrajectory(s *Site, a int, start Point) *Trajectory {
 	return &Trajectory{site: s, Agent: a, start: start}
 }
 
-// timeTol is the relative tolerance used for "waypoint time reachable" and for ties.
-const TimeTol = 1e-9
-
-func Tol(t float64) float64 { return TimeTol * math.Max(1, math.Abs(t)) }
-
 // Trajectory expands agent a's route into segments, checking that times do
 // not go down and never ask for more than full speed. O(waypoints · log n +
 // total path length).

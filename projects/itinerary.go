@@ -14,35 +14,13 @@ import (
 // Disclaimer is the last line of every itinerary.
 const Disclaimer = "Duosweep is a planning and training aid, not a substitute for the site's emergency plan, local regulations or licensed practice."
 
-// FormatDuration formats sec as "mm:ss", or "h:mm:ss" from one hour on,
-// truncating to whole seconds like a stopwatch. +Inf is "never", NaN "n/a".
-func FormatDuration(sec float64) string {
-	switch {
-	case math.IsNaN(sec):
-		return "n/a"
-	case math.IsInf(sec, 1):
-		return "never"
-	case math.IsInf(sec, -1):
-		return "-never"
-	case sec < 0:
-		return "-" + FormatDuration(-sec)
-	}
-	// a tiny epsilon so that 59.9999999999 from float sums shows as 01:00
-	total := int64(math.Floor(sec + 1e-9))
-	h, m, s := total/3600, total/60%60, total%60
-	if h > 0 {
-		return fmt.Sprintf("%d:%02d:%02d", h, m, s)
-	}
-	return fmt.Sprintf("%02d:%02d", m, s)
-}
+// FormatDuration formats sec as "mm:ss", or "h:mm:ss" from one hour on.
+//
+// Deprecated: use engine.FormatClock, which it calls.
+func FormatDuration(sec float64) string { return engine.FormatClock(sec) }
 
 // formatSeconds is a time both as mm:ss and in seconds: "06:12 (372.4 s)".
-func formatSeconds(sec float64) string {
-	if math.IsInf(sec, 0) || math.IsNaN(sec) {
-		return FormatDuration(sec)
-	}
-	return fmt.Sprintf("%s (%.1f s)", FormatDuration(sec), sec)
-}
+func formatSeconds(sec float64) string { return engine.FormatClockSeconds(sec) }
 
 // nodeName is "id (label)", or the id when the node has no label.
 func nodeName(s *engine.Site, v int) string {
@@ -129,7 +107,7 @@ func WriteItinerary(w io.Writer, s *engine.Site, p *engine.Plan, r *engine.Repor
 		for i, st := range steps {
 			pf("%3d. %s  %s", i+1, FormatDuration(st.t), st.text)
 			var found []string
-			for k < len(first[a]) && first[a][k].t <= st.t+1e-9*math.Max(1, st.t) {
+			for k < len(first[a]) && first[a][k].t <= st.t+engine.Tol(st.t) {
 				if first[a][k].v != s.Start {
 					found = append(found, s.IDs[first[a][k].v])
 				}
@@ -238,7 +216,7 @@ func agentSteps(s *engine.Site, wps []engine.Waypoint, a int) []step {
 			out = append(out, step{t: arrive, text: text, walk: true, action: "walk", at: wp.P, dist: d})
 		}
 		end := math.Max(wp.T, arrive)
-		if end-arrive > 1e-9*math.Max(1, end) {
+		if end-arrive > engine.Tol(end) {
 			out = append(out, step{t: end, text: fmt.Sprintf("wait at %s until %s (%.1f s)", pointName(s, wp.P), FormatDuration(end), end-arrive), action: "wait", at: wp.P})
 		}
 		if wp.Rendezvous {

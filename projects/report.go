@@ -92,14 +92,11 @@ func strp(s string) *string { return &s }
 
 // FinderName returns the name of the agent that finds an exit, "both" for a
 // tie, "" when nobody visits it.
-func FinderName(s *engine.Site, finder int) string {
-	switch finder {
-	case engine.Both:
-		return "both"
-	case 0, 1:
-		return s.Names[finder]
+func FinderName(s *engine.Site, finder engine.Finder) string {
+	if finder == engine.Nobody {
+		return ""
 	}
-	return ""
+	return finder.Name(s.Names)
 }
 
 func waypointOut(s *engine.Site, wp engine.Waypoint) outWaypoint {

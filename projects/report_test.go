@@ -188,6 +188,6 @@ func TestFormatDuration(t *testing.T) {
 		{math.Inf(1), "never"}, {math.NaN(), "n/a"}, {-5, "-00:05"},
 	}
 	for _, c := range cases {
-		assert.Equal(t, c.want, FormatDuration(c.in), "%g", c.in)
+		assert.Equal(t, c.want, engine.FormatClock(c.in), "%g", c.in)
 	}
 }

@@ -39,7 +39,7 @@ func TestMainWindowBuildsOnDemo(t *testing.T) {
 	if got := a.w.worst.Text; got != clockSeconds(r.Worst) {
 		t.Fatalf("worst case label %q, want %q", got, clockSeconds(r.Worst))
 	}
-	if !strings.Contains(a.w.worst.Text, projects.FormatDuration(r.Worst)) || !strings.Contains(a.w.worst.Text, " s)") {
+	if !strings.Contains(a.w.worst.Text, engine.FormatClock(r.Worst)) || !strings.Contains(a.w.worst.Text, " s)") {
 		t.Fatalf("worst case label %q lacks mm:ss and seconds", a.w.worst.Text)
 	}
 	if a.planning.busy || a.w.busyBar.Visible() {

@@ -97,7 +97,7 @@ func (a *App) exportMap(in brief.Input, path string) {
 		if name == "" {
 			name = "(unnamed site)"
 		}
-		title := fmt.Sprintf("%s · %s · worst case %s", name, in.Report.Model, projects.FormatDuration(in.Report.Worst))
+		title := fmt.Sprintf("%s · %s · worst case %s", name, in.Report.Model, engine.FormatClock(in.Report.Worst))
 		m, err := brief.BuildMap(in, pictureW, pictureH, brief.MapOptions{Title: title, Notice: true})
 		if err != nil {
 			return err

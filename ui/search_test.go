@@ -85,9 +85,9 @@ func TestSearchNeverWorseThanPublishedAndUseThisPlan(t *testing.T) {
 			if !near(res.baseR.Worst, br.Worst) || res.base.Planner != bp.Planner {
 				t.Fatalf("shown published plan %s %v, engine's best %s %v", res.base.Planner, res.baseR.Worst, bp.Planner, br.Worst)
 			}
-			wantBase := bp.Planner + ": " + projects.FormatDuration(br.Worst)
-			if !strings.HasPrefix(a.w.search.baseVal.Text, wantBase) || !strings.HasPrefix(a.w.search.resVal.Text, "improve: "+projects.FormatDuration(r.Worst)) {
-				t.Fatalf("result table %q / %q, want %q / improve %s", a.w.search.baseVal.Text, a.w.search.resVal.Text, wantBase, projects.FormatDuration(r.Worst))
+			wantBase := bp.Planner + ": " + engine.FormatClock(br.Worst)
+			if !strings.HasPrefix(a.w.search.baseVal.Text, wantBase) || !strings.HasPrefix(a.w.search.resVal.Text, "improve: "+engine.FormatClock(r.Worst)) {
+				t.Fatalf("result table %q / %q, want %q / improve %s", a.w.search.baseVal.Text, a.w.search.resVal.Text, wantBase, engine.FormatClock(r.Worst))
 			}
 			// until "Use this plan" the published plan stays current
 			if !near(a.planning.report.Worst, br.Worst) {

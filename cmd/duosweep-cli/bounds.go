@@ -6,7 +6,6 @@ import (
 	"math"
 
 	"duosweep/engine"
-	"duosweep/projects"
 )
 
 func init() {
@@ -44,7 +43,7 @@ func runBounds(e *env, args []string) error {
 	} else {
 		fmt.Fprintf(w, "LB3 (cover split):   not computed (site too large for the exact split)\n")
 	}
-	fmt.Fprintf(w, "LB:                  %.2f s (%s) = max(LB1 / v, LB2 / v, LB3), v = %g %s/s the faster speed\n", b.LB, projects.FormatDuration(b.LB), speed, u)
+	fmt.Fprintf(w, "LB:                  %.2f s (%s) = max(LB1 / v, LB2 / v, LB3), v = %g %s/s the faster speed\n", b.LB, engine.FormatClock(b.LB), speed, u)
 	fmt.Fprintf(w, "farthest candidate:  %s\n", nodeLabel(s, b.Far))
 	return nil
 }

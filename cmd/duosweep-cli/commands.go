@@ -254,7 +254,7 @@ func progressTo(w io.Writer, planner string) func(planners.Progress) {
 			return
 		}
 		last = now
-		fmt.Fprintf(w, "%s: %3.0f%%  best %s  %s\n", planner, 100*p.Done, projects.FormatDuration(p.Best), p.Note)
+		fmt.Fprintf(w, "%s: %3.0f%%  best %s  %s\n", planner, 100*p.Done, engine.FormatClock(p.Best), p.Note)
 	}
 }
 

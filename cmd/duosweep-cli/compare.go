@@ -10,7 +10,6 @@ import (
 
 	"duosweep/engine"
 	"duosweep/engine/planners"
-	"duosweep/projects"
 )
 
 func init() {
@@ -121,7 +120,7 @@ func compareRows(e *env, s *engine.Site, b time.Duration, seed int64) ([]compare
 func writeCompare(e *env, s *engine.Site, rows []compareRow) {
 	w := e.stdout
 	bd := engine.ComputeBounds(s)
-	fmt.Fprintf(w, "%s\nlower bound %s (%.1f s); %d candidates\n\n", s.Scenario.Name, projects.FormatDuration(bd.LB), bd.LB, len(s.Candidates()))
+	fmt.Fprintf(w, "%s\nlower bound %s (%.1f s); %d candidates\n\n", s.Scenario.Name, engine.FormatClock(bd.LB), bd.LB, len(s.Candidates()))
 	tw := tabwriter.NewWriter(w, 0, 4, 2, ' ', 0)
 	fmt.Fprintln(tw, "planner\tmodel\tworst\tworst s\tworst exit\tgap %\texpected\tcomplete")
 	var notes []string
@@ -147,13 +146,13 @@ func writeCompare(e *env, s *engine.Site, rows []compareRow) {
 			gap = fmt.Sprintf("%.1f", 100*r.Gap)
 		}
 		if r.HasExpected {
-			exp = projects.FormatDuration(r.Expected)
+			exp = engine.FormatClock(r.Expected)
 		}
 		complete := "yes"
 		if !r.Complete {
 			complete = fmt.Sprintf("no (%d unvisited)", len(r.Unvisited))
 		}
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\n", row.planner, row.model, projects.FormatDuration(r.Worst), worstS, exit, gap, exp, complete)
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\n", row.planner, row.model, engine.FormatClock(r.Worst), worstS, exit, gap, exp, complete)
 	}
 	tw.Flush()
 	if len(notes) > 0 {

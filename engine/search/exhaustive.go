@@ -59,9 +59,9 @@ package search
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"math"
-	"sort"
 	"time"
 
 	"duosweep/engine"
@@ -98,7 +98,7 @@ func ClassName(m engine.Model) string {
 }
 
 // ErrSiteTooLarge is returned (wrapped) when a site exceeds the exhaustive planner's limits.
-var ErrSiteTooLarge = fmt.Errorf("engine: exhaustive: site too large")
+var ErrSiteTooLarge = errors.New("engine: exhaustive: site too large")
 
 // ExhaustiveResult is what the exhaustive search reports besides the plan.
 type ExhaustiveResult struct {
@@ -108,26 +108,31 @@ type ExhaustiveResult struct {
 	Incumbent string // the planner whose plan won ("exhaustive" when the search found it)
 }
 
+// Agent status in the exhaustive search.
 const (
-	agActive = iota
-	agWaiting
-	agStopped
+	agActive  = iota // choosing legs
+	agWaiting        // waiting at a rendezvous node for its partner
+	agStopped        // parked for good
 )
 
+// exAgent is one agent's committed route in the exhaustive search.
 type exAgent struct {
-	tr     *engine.Trajectory
-	wps    []engine.Waypoint
-	pos    int     // node at the end of the committed route
-	T      float64 // time at the end of the committed route
-	status int
-	from   int   // origin of the last leg
-	rv     int   // rendezvous node while waiting
-	ver    int64 // changes whenever the committed route or status changes
+	tr     *engine.Trajectory // the committed route, grown leg by leg
+	wps    []engine.Waypoint  // its waypoints (the plan's route)
+	pos    int                // node at the end of the committed route
+	T      float64            // time at the end of the committed route
+	status int                // agActive, agWaiting or agStopped
+	from   int                // origin of the last leg
+	rv     int                // rendezvous node while waiting
+	ver    int64              // changes whenever the committed route or status changes
 }
 
+// exSnap is what restore needs to undo an agent's step: the lengths of its
+// trajectory's segment, rendezvous and waypoint lists, and its exAgent
+// fields (same names) before the step.
 type exSnap struct {
-	nseg, nrv, nwp int
-	length, end    float64
+	nseg, nrv, nwp int     // len of tr.Segs, tr.RVTime (and RVAt, RVSegs), wps
+	length, end    float64 // tr.Length, tr.End
 	pos            int
 	T              float64
 	status, from   int
@@ -135,29 +140,38 @@ type exSnap struct {
 	ver            int64
 }
 
+// exKey is the memo key of a decision state: two states with equal keys
+// have the same futures, so the one reached later with a worse settled
+// maximum is dominated (see exPair).
 type exKey struct {
-	vis     uint32
-	m       int8
-	pm      int16
-	ost     int8
-	oq, opo int16
-	rel     uint64
-	meet    uint8 // 1 when a rendezvous may be called (face to face: progress since the last one)
-	pend    [4]exPend
+	vis  uint32    // bit mask of the candidates visited by the decision time
+	m    int8      // the agent that decides (0 or 1)
+	pm   int16     // the node the deciding agent stands on
+	ost  int8      // the other agent's status (agActive, agWaiting, agStopped)
+	oq   int16     // the other agent's leg origin (its node once the leg is done)
+	opo  int16     // the other agent's leg end node
+	rel  uint64    // bits of the time the other agent still needs to end its leg (≥ 0)
+	meet uint8     // 1 when a rendezvous may be called (face to face: progress since the last one)
+	pend [4]exPend // found candidates whose evacuation time is still open (equal speeds only)
 }
 
 // exPend is a found candidate whose evacuation time is not settled: its
 // index, finder and how long before the decision it was found.
 type exPend struct {
-	c, f int8
-	rel  uint64
+	c   int8   // candidate index
+	f   int8   // finder (agent index)
+	rel uint64 // bits of the decision time minus the time it was found
 }
 
+// exPair is one memo entry of a key: a state reached at decision time T
+// with settled maximum evacuation M. A later state with T' ≥ T and
+// M' ≥ M is dominated.
 type exPair struct{ T, M float64 }
 
+// fvUndo records one first-visit time change, to undo on backtracking.
 type fvUndo struct {
-	a, v int
-	old  float64
+	a, v int     // agent and node
+	old  float64 // the first-visit time before the change
 }
 
 type exSearch struct {
@@ -330,650 +344,4 @@ func clonePlan(p *engine.Plan) *engine.Plan {
 		q.Routes[a].Waypoints = append([]engine.Waypoint(nil), p.Routes[a].Waypoints...)
 	}
 	return &q
-}
-
-func (x *exSearch) init() {
-	s := x.s
-	x.cidx = make([]int, s.N)
-	for v := range x.cidx {
-		x.cidx[v] = -1
-		if s.Candidate[v] {
-			x.cidx[v] = len(x.cand)
-			x.cand = append(x.cand, v)
-		}
-	}
-	x.allMask = uint32(1)<<len(x.cand) - 1
-	x.settled = make([]bool, len(x.cand))
-	x.pcache = make([]pendCache, len(x.cand))
-	x.evac = make([]float64, len(x.cand))
-	x.anchor = make([]bool, s.N)
-	x.sub = make([]uint32, s.N)
-	for i := s.N - 1; i >= 0; i-- {
-		v := int(s.Order[i])
-		if !s.InSearch[v] {
-			continue
-		}
-		if c := x.cidx[v]; c >= 0 {
-			x.sub[v] |= 1 << c
-		}
-		if p := s.Parent[v]; p >= 0 {
-			x.sub[p] |= x.sub[v]
-		}
-		deg := 0
-		if s.Parent[v] >= 0 {
-			deg++
-		}
-		for _, c := range s.Children(v) {
-			if s.InSearch[c] {
-				deg++
-			}
-		}
-		x.anchor[v] = v == s.Start || s.Candidate[v] || deg >= 3
-	}
-	for a := 0; a < 2; a++ {
-		x.fv[a] = make([]float64, s.N)
-		for v := range x.fv[a] {
-			x.fv[a][v] = math.Inf(1)
-		}
-		x.fv[a][s.Start] = 0
-		x.ag[a] = exAgent{tr: engine.NewTrajectory(s, a, engine.At(s.Start)), pos: s.Start, from: s.Start, rv: -1}
-	}
-}
-
-func (x *exSearch) snap(a int) exSnap {
-	g := &x.ag[a]
-	return exSnap{nseg: len(g.tr.Segs), nrv: len(g.tr.RVTime), nwp: len(g.wps), length: g.tr.Length, end: g.tr.End,
-		pos: g.pos, T: g.T, status: g.status, from: g.from, rv: g.rv, ver: g.ver}
-}
-
-// touch gives agent a's route a new version (call after changing it).
-func (x *exSearch) touch(a int) {
-	x.verN++
-	x.ag[a].ver = x.verN
-}
-
-func (x *exSearch) restore(a int, sn exSnap) {
-	g := &x.ag[a]
-	g.tr.Segs = g.tr.Segs[:sn.nseg]
-	g.tr.RVTime, g.tr.RVAt, g.tr.RVSegs = g.tr.RVTime[:sn.nrv], g.tr.RVAt[:sn.nrv], g.tr.RVSegs[:sn.nrv]
-	g.wps = g.wps[:sn.nwp]
-	g.tr.Length, g.tr.End = sn.length, sn.end
-	g.pos, g.T, g.status, g.from, g.rv, g.ver = sn.pos, sn.T, sn.status, sn.from, sn.rv, sn.ver
-}
-
-// walkTo appends agent a's leg to node v (no waypoint), updating first visits.
-func (x *exSearch) walkTo(a, v int) {
-	g := &x.ag[a]
-	s := x.s
-	if v == g.pos {
-		g.from = v
-		return
-	}
-	k := len(g.tr.Segs)
-	d := s.Dist(g.pos, v)
-	g.tr.Walk(engine.At(g.pos), engine.At(v), g.T, s.Speed[a])
-	g.tr.Length += d
-	g.from = g.pos
-	g.pos = v
-	g.T = g.tr.Segs[len(g.tr.Segs)-1].T1
-	g.tr.End = g.T
-	x.touch(a)
-	for i := k; i < len(g.tr.Segs); i++ {
-		sg := &g.tr.Segs[i]
-		if sg.E < 0 {
-			continue
-		}
-		e := int(sg.E)
-		if sg.O1 == 0 {
-			x.see(a, int(s.EU[e]), sg.T1)
-		} else if sg.O1 == s.EW[e] {
-			x.see(a, int(s.EV[e]), sg.T1)
-		}
-	}
-}
-
-func (x *exSearch) see(a, v int, t float64) {
-	if t < x.fv[a][v] {
-		x.fvLog = append(x.fvLog, fvUndo{a, v, x.fv[a][v]})
-		x.fv[a][v] = t
-	}
-}
-
-func (x *exSearch) undoFV(n int) {
-	for len(x.fvLog) > n {
-		u := x.fvLog[len(x.fvLog)-1]
-		x.fv[u.a][u.v] = u.old
-		x.fvLog = x.fvLog[:len(x.fvLog)-1]
-	}
-}
-
-func (x *exSearch) undoSettled(n int) {
-	for len(x.setLog) > n {
-		c := x.setLog[len(x.setLog)-1]
-		x.settled[c] = false
-		x.setLog = x.setLog[:len(x.setLog)-1]
-	}
-}
-
-func (x *exSearch) firstVisit(v int) float64 { return math.Min(x.fv[0][v], x.fv[1][v]) }
-
-// teff is the time up to which agent a's trajectory is fixed (+Inf once it
-// stopped or waits at a rendezvous).
-func (x *exSearch) teff(a int) float64 {
-	if x.ag[a].status != agActive {
-		return math.Inf(1)
-	}
-	return x.ag[a].T
-}
-
-func (x *exSearch) trs() [2]*engine.Trajectory { return [2]*engine.Trajectory{x.ag[0].tr, x.ag[1].tr} }
-
-func (x *exSearch) checkStop() {
-	x.states++
-	if x.states&511 != 0 {
-		return
-	}
-	now := time.Now()
-	if err := x.ctx.Err(); err != nil {
-		x.stopped, x.stopWhy = true, "cancelled"
-		return
-	}
-	if now.After(x.deadline) {
-		x.stopped, x.stopWhy = true, fmt.Sprintf("time limit %v", x.budget)
-		return
-	}
-	if x.progress != nil && now.Sub(x.lastProg) >= 100*time.Millisecond {
-		x.lastProg = now
-		x.progress(Progress{Done: math.Min(1, float64(now.Sub(x.begin))/float64(x.budget)), Best: x.inc,
-			Note: fmt.Sprintf("exhaustive: %d states", x.states)})
-	}
-}
-
-func (x *exSearch) step() {
-	x.checkStop()
-	if x.stopped {
-		return
-	}
-	a0, a1 := &x.ag[0], &x.ag[1]
-	if a0.status == agWaiting && a1.status == agWaiting {
-		x.meet()
-		return
-	}
-	m := -1
-	for a := 0; a < 2; a++ {
-		if x.ag[a].status == agActive && (m < 0 || x.ag[a].T < x.ag[m].T) {
-			m = a
-		}
-	}
-	if m < 0 {
-		x.leaf()
-		return
-	}
-	x.decide(m)
-}
-
-func (x *exSearch) meet() {
-	R := x.ag[0].rv
-	tm := math.Max(x.ag[0].T, x.ag[1].T)
-	var sn [2]exSnap
-	for a := 0; a < 2; a++ {
-		sn[a] = x.snap(a)
-		g := &x.ag[a]
-		if tm > g.T {
-			g.tr.AddWait(engine.At(R), g.T, tm)
-		}
-		g.T, g.tr.End = tm, tm
-		g.tr.RVTime = append(g.tr.RVTime, tm)
-		g.tr.RVAt = append(g.tr.RVAt, engine.At(R))
-		g.tr.RVSegs = append(g.tr.RVSegs, len(g.tr.Segs))
-		g.wps = append(g.wps, engine.Waypoint{P: engine.At(R), T: tm, Rendezvous: true})
-		g.status, g.rv, g.from = agActive, -1, R
-		x.touch(a)
-	}
-	old := x.lastMeet
-	x.lastMeet = 0
-	for c, v := range x.cand {
-		if x.firstVisit(v) <= tm {
-			x.lastMeet |= 1 << c
-		}
-	}
-	x.step()
-	x.lastMeet = old
-	x.restore(0, sn[0])
-	x.restore(1, sn[1])
-}
-
-// leaf scores a finished plan.
-func (x *exSearch) leaf() {
-	trs := x.trs()
-	worst := 0.0
-	for _, v := range x.cand {
-		if math.IsInf(x.firstVisit(v), 1) {
-			return
-		}
-		ex := engine.ExitFull(x.s, trs, x.fv, v, x.m)
-		worst = math.Max(worst, ex.EvacAt)
-		if worst >= x.inc*(1-1e-12) {
-			return
-		}
-	}
-	p := &engine.Plan{Planner: "exhaustive", Model: x.m}
-	for a := 0; a < 2; a++ {
-		g := &x.ag[a]
-		wps := append([]engine.Waypoint(nil), g.wps...)
-		if g.status == agWaiting {
-			wps = append(wps, engine.Waypoint{P: engine.At(g.pos), T: g.T})
-		}
-		p.Routes[a] = engine.Route{Waypoints: wps}
-	}
-	r, err := engine.Evaluate(x.s, p, x.m)
-	if err != nil || !r.Complete {
-		return
-	}
-	if r.Worst < x.inc*(1-1e-12) {
-		x.inc, x.incPlan, x.incFrom = r.Worst, p, "exhaustive"
-	}
-}
-
-// settle computes evac for found candidates whose value the rest of the plan
-// cannot change, and returns the largest settled value and a lower bound over
-// the found but unsettled ones, plus whether any found one is pending.
-func (x *exSearch) settle(T float64) (maxSettled, pendLB float64, pending bool) {
-	s := x.s
-	trs := x.trs()
-	for c, v := range x.cand {
-		if x.settled[c] {
-			maxSettled = math.Max(maxSettled, x.evac[c])
-			continue
-		}
-		t0, t1 := x.fv[0][v], x.fv[1][v]
-		t := math.Min(t0, t1)
-		if math.IsInf(t, 1) {
-			continue
-		}
-		f := 0
-		if t1 < t0 {
-			f = 1
-		}
-		if math.Abs(t0-t1) <= engine.Tol(t) {
-			x.settled[c], x.evac[c] = true, t
-			x.setLog = append(x.setLog, c)
-			maxSettled = math.Max(maxSettled, t)
-			continue
-		}
-		p := 1 - f
-		tp := x.teff(p)
-		if pc := &x.pcache[c]; pc.ok && pc.v0 == x.ag[0].ver && pc.v1 == x.ag[1].ver {
-			pendLB = math.Max(pendLB, pc.lb)
-			pending = pending || t <= T
-			continue
-		}
-		if t > tp {
-			// the partner may still get there first; it must get there anyway
-			g := &x.ag[p]
-			lb := g.T + s.Dist(g.pos, v)/s.Speed[p]
-			x.pcache[c] = pendCache{v0: x.ag[0].ver, v1: x.ag[1].ver, lb: lb, ok: true}
-			pendLB = math.Max(pendLB, lb)
-			pending = pending || t <= T
-			continue
-		}
-		ex := engine.ExitFull(s, trs, x.fv, v, x.m)
-		ok := x.m.Instant() || math.IsInf(tp, 1)
-		if !ok {
-			tr := trs[p]
-			if k := sort.SearchFloat64s(tr.RVTime, t-engine.Tol(t)); k < len(tr.RVTime) {
-				ok = true
-			} else if s.Speed[p] <= s.Speed[f] {
-				ok = ex.MeetAt <= tp+engine.Tol(tp)
-			} else {
-				ok = ex.EvacAt <= tp
-			}
-		}
-		if ok {
-			x.settled[c], x.evac[c] = true, ex.EvacAt
-			x.setLog = append(x.setLog, c)
-			maxSettled = math.Max(maxSettled, ex.EvacAt)
-			continue
-		}
-		// radio value at t: never more than the face-to-face one
-		lb := t + s.NodeDist(trs[p].PositionAt(t), v)/s.Speed[p]
-		if s.Speed[p] <= s.Speed[f] {
-			// the meeting comes after tp and τ + d(π(τ), x)/v never decreases
-			g := &x.ag[p]
-			lb = math.Max(lb, tp+s.Dist(g.pos, v)/s.Speed[p])
-		}
-		x.pcache[c] = pendCache{v0: x.ag[0].ver, v1: x.ag[1].ver, lb: lb, ok: true}
-		pendLB = math.Max(pendLB, lb)
-		pending = pending || t <= T
-	}
-	return
-}
-
-// steinerW returns the corridor length of the smallest subtree holding the
-// candidates in mask and node v.
-func (x *exSearch) steinerW(mask uint32, v int) float64 {
-	s := x.s
-	if mask == 0 {
-		return 0
-	}
-	w := 0.0
-	for u := 0; u < s.N; u++ {
-		if u == s.Start || !s.InSearch[u] {
-			continue
-		}
-		in := x.sub[u]&mask != 0
-		vin := x.inSub(v, u)
-		out := mask&^x.sub[u] != 0
-		if (in || vin) && (out || !vin) {
-			w += s.EW[s.ParentEdge[u]]
-		}
-	}
-	return w
-}
-
-// inSub reports whether node v lies in the subtree of u.
-func (x *exSearch) inSub(v, u int) bool {
-	s := x.s
-	if s.Level[v] < s.Level[u] {
-		return false
-	}
-	return s.LCA(u, v) == u
-}
-
-func (x *exSearch) decide(m int) {
-	s := x.s
-	o := 1 - m
-	g := &x.ag[m]
-	T := g.T
-	// visited by time T
-	var vis uint32
-	for c, v := range x.cand {
-		if x.firstVisit(v) <= T {
-			vis |= 1 << c
-		}
-	}
-	setMark := len(x.setLog)
-	defer x.undoSettled(setMark)
-	if vis == x.allMask {
-		sn := x.snap(m)
-		g.status = agStopped
-		x.touch(m)
-		x.step()
-		x.restore(m, sn)
-		return
-	}
-	maxSettled, pendLB, pending := x.settle(T)
-	lb := math.Max(maxSettled, pendLB)
-	if x.cfg.noPrune {
-		lb = math.Inf(-1)
-	}
-	if lb >= x.inc*(1-1e-12) {
-		return
-	}
-	// unvisited candidates: both agents must get there from where they are at T
-	og := &x.ag[o]
-	po := og.tr.PositionAt(T)
-	if og.status == agStopped && T >= og.T {
-		po = engine.At(og.pos)
-	}
-	unv := x.allMask &^ vis
-	for c, v := range x.cand {
-		if unv&(1<<c) == 0 {
-			continue
-		}
-		b := T + math.Max(s.Dist(g.pos, v)/s.Speed[m], s.NodeDist(po, v)/s.Speed[o])
-		if !x.cfg.noPrune {
-			lb = math.Max(lb, b)
-		}
-	}
-	if lb >= x.inc*(1-1e-12) {
-		return
-	}
-	sw := x.steinerW(unv, g.pos)
-	if b := T + (2*sw-s.NodeDist(po, g.pos))/(2*x.vmax); b > lb && !x.cfg.noPrune {
-		lb = b
-	}
-	if lb >= x.inc*(1-1e-12) {
-		return
-	}
-	// memo (face to face with equal speeds: up to four pending candidates
-	// join the key, as their evacuation times then depend only on the future)
-	var pend [4]exPend
-	np := 0
-	if x.cfg.noPrune {
-		pending = true
-	}
-	if pending && s.Speed[0] == s.Speed[1] && !x.cfg.noPrune {
-		for c, v := range x.cand {
-			t := x.firstVisit(v)
-			if x.settled[c] || t > T {
-				continue
-			}
-			if np == len(pend) {
-				np = -1
-				break
-			}
-			f := int8(0)
-			if x.fv[1][v] < x.fv[0][v] {
-				f = 1
-			}
-			pend[np] = exPend{c: int8(c), f: f, rel: math.Float64bits(T - t)}
-			np++
-		}
-		if np > 0 {
-			pending = false
-		}
-	}
-	if !pending {
-		k := exKey{vis: vis, m: int8(m), pm: int16(g.pos), ost: int8(og.status), oq: int16(og.from), opo: int16(og.pos), pend: pend}
-		rel := og.T - T
-		if rel <= 0 {
-			rel, k.oq = 0, int16(og.pos)
-		}
-		k.rel = math.Float64bits(rel)
-		if vis != x.lastMeet {
-			k.meet = 1
-		}
-		list := x.memo[k]
-		for _, pr := range list {
-			if pr.T <= T && pr.M <= maxSettled {
-				return
-			}
-		}
-		// a state explored with the symmetry restriction is not fully explored here
-		if x.memoN < exMemoCap && !(m == 1 && x.sym.on) {
-			kept := list[:0]
-			for _, pr := range list {
-				if !(T <= pr.T && maxSettled <= pr.M) {
-					kept = append(kept, pr)
-				}
-			}
-			x.memo[k] = append(kept, exPair{T, maxSettled})
-			x.memoN++
-		}
-	}
-
-	// options: the frontier of unvisited candidates and the reachable anchors
-	type opt struct {
-		kind int // 0 target, 1 park, 2 rendezvous, 3 go to the partner's rendezvous
-		v    int
-		d    float64
-	}
-	// nearest first, ties by node
-	byDist := func(o []opt) {
-		sort.Slice(o, func(i, j int) bool {
-			if o[i].d != o[j].d {
-				return o[i].d < o[j].d
-			}
-			return o[i].v < o[j].v
-		})
-	}
-	var opts []opt
-	var reach []int
-	{
-		// DFS from g.pos through the search tree, not passing unvisited candidates
-		stack := []int{g.pos}
-		seen := make([]bool, s.N)
-		seen[g.pos] = true
-		for len(stack) > 0 {
-			u := stack[len(stack)-1]
-			stack = stack[:len(stack)-1]
-			if c := x.cidx[u]; c >= 0 && unv&(1<<c) != 0 && u != g.pos {
-				opts = append(opts, opt{0, u, s.Dist(g.pos, u)})
-				continue
-			}
-			reach = append(reach, u)
-			nb := func(w int) {
-				if w >= 0 && s.InSearch[w] && !seen[w] {
-					seen[w] = true
-					stack = append(stack, w)
-				}
-			}
-			nb(int(s.Parent[u]))
-			for _, c := range s.Children(u) {
-				nb(int(c))
-			}
-		}
-	}
-	byDist(opts)
-	if og.status == agWaiting {
-		opts = append(opts, opt{kind: 3, v: og.rv, d: s.Dist(g.pos, og.rv)})
-	} else {
-		// parking: allowed unless the partner has stopped with work left
-		canStop := og.status == agActive
-		if canStop {
-			// keep anchors in the Steiner tree of the unvisited and pending candidates and g.pos
-			var need uint32 = unv
-			for c, v := range x.cand {
-				if !x.settled[c] && !math.IsInf(x.firstVisit(v), 1) && x.fv[o][v] < x.fv[m][v] {
-					need |= 1 << c
-				}
-			}
-			var parks []opt
-			for _, u := range reach {
-				if !x.anchor[u] && u != g.pos {
-					continue
-				}
-				if u != g.pos && !x.cfg.noPrune && !x.inSteiner(need, g.pos, u) {
-					continue
-				}
-				parks = append(parks, opt{1, u, s.Dist(g.pos, u)})
-			}
-			byDist(parks)
-			opts = append(opts, parks...)
-		}
-		if x.m.Rendezvous() && og.status == agActive && vis != x.lastMeet {
-			// with equal speeds a rendezvous outside the smallest subtree T*
-			// holding the unvisited and pending candidates and both leg ends
-			// is dominated by the point where the paths to it leave T*.
-			equal := s.Speed[0] == s.Speed[1] && !x.cfg.noPrune
-			var need uint32 = unv
-			for c, v := range x.cand {
-				if !x.settled[c] && !math.IsInf(x.firstVisit(v), 1) {
-					need |= 1 << c
-				}
-			}
-			var rvs []opt
-			for _, u := range reach {
-				if x.anchor[u] && (!equal || x.inSteiner2(need, g.pos, og.pos, u)) {
-					rvs = append(rvs, opt{2, u, s.Dist(g.pos, u)})
-				}
-			}
-			byDist(rvs)
-			opts = append(opts, rvs...)
-		}
-	}
-	symHere := false
-	var lim exSym
-	if m == 0 && og.status == agActive && s.Speed[0] == s.Speed[1] && og.pos == g.pos && og.T == T && !pending && np == 0 && !x.cfg.noPrune {
-		symHere = true
-	}
-	if m == 1 && x.sym.on {
-		lim = x.sym
-		x.sym.on = false
-		defer func() { x.sym = lim }()
-	}
-	for _, op := range opts {
-		if x.stopped {
-			return
-		}
-		kind := op.kind
-		if kind == 3 {
-			kind = 2
-		}
-		if lim.on && (kind < lim.kind || kind == lim.kind && op.v < lim.v) {
-			continue
-		}
-		if symHere {
-			x.sym = exSym{on: true, kind: kind, v: op.v}
-		}
-		sn := x.snap(m)
-		fvMark := len(x.fvLog)
-		switch op.kind {
-		case 0:
-			x.walkTo(m, op.v)
-			g.wps = append(g.wps, engine.Waypoint{P: engine.At(op.v), T: g.T})
-		case 1:
-			x.walkTo(m, op.v)
-			if op.v != sn.pos {
-				g.wps = append(g.wps, engine.Waypoint{P: engine.At(op.v), T: g.T})
-			}
-			g.status = agStopped
-		case 2, 3:
-			x.walkTo(m, op.v)
-			g.status, g.rv = agWaiting, op.v
-		}
-		x.touch(m)
-		x.step()
-		x.undoFV(fvMark)
-		x.restore(m, sn)
-		if symHere {
-			x.sym = exSym{}
-		}
-	}
-}
-
-// inSteiner reports whether node u lies in the smallest subtree holding the
-// candidates in mask and node v.
-func (x *exSearch) inSteiner(mask uint32, v, u int) bool {
-	s := x.s
-	if u == v {
-		return true
-	}
-	if mask == 0 {
-		return false
-	}
-	// u is in the Steiner tree iff u separates (or is one of) the points:
-	// some point lies in u's subtree (rooted at the start) and some point
-	// outside it, or two of u's child subtrees hold points, or u is a point.
-	if c := x.cidx[u]; c >= 0 && mask&(1<<c) != 0 {
-		return true
-	}
-	in := x.sub[u]&mask != 0 || x.inSub(v, u)
-	out := mask&^x.sub[u] != 0 || !x.inSub(v, u)
-	if in && out {
-		return true
-	}
-	if !in {
-		return false
-	}
-	// all points below u: need two child subtrees with points
-	k := 0
-	for _, c := range s.Children(u) {
-		if x.sub[c]&mask != 0 || x.inSub(v, int(c)) {
-			k++
-		}
-	}
-	return k >= 2
-}
-
-// inSteiner2 reports whether node u lies in the smallest subtree holding the
-// candidates in mask and nodes v and w: u is on the path from v to w, or in
-// the subtree holding mask and v, or in the one holding mask and w.
-func (x *exSearch) inSteiner2(mask uint32, v, w, u int) bool {
-	s := x.s
-	if s.Dist(v, u)+s.Dist(u, w) == s.Dist(v, w) {
-		return true
-	}
-	return x.inSteiner(mask, v, u) || x.inSteiner(mask, w, u)
 }
