@@ -105,6 +105,7 @@ type Editor struct {
 	pointer fyne.Position
 
 	msg   message
+	bd    backdropState                   // backdrop image and calibration (backdrop.go)
 	after func(d time.Duration, f func()) // timer used to hide messages; replaced in tests
 	now   func() time.Time
 }
@@ -260,7 +261,9 @@ func (e *Editor) rebuild() {
 		if a >= 0 && b >= 0 {
 			d.deg[a]++
 			d.deg[b]++
-			d.pair[pairKey(a, b)] = i
+			if _, seen := d.pair[pairKey(a, b)]; !seen || !c.Closed {
+				d.pair[pairKey(a, b)] = i // an open corridor wins over a closed one between the same two nodes
+			}
 			edges = append(edges, geom.Edge{A: a, B: b, Len: geom.Dist(d.world[a], d.world[b])})
 		}
 	}

@@ -151,6 +151,9 @@ func (e *Editor) Tapped(ev *fyne.PointEvent) {
 	e.pointer = pos
 	mods := e.mods()
 	e.press, e.tapMods = press{}, 0
+	if e.captureTap(pos) { // calibrating the backdrop (backdrop.go)
+		return
+	}
 	hit := e.hitTest(pos)
 	switch hit.Kind {
 	case SelNode:
@@ -194,6 +197,9 @@ func (e *Editor) TappedSecondary(ev *fyne.PointEvent) {
 	pos := ev.Position
 	e.pointer = pos
 	e.press, e.tapMods = press{}, 0
+	if e.captureTap(pos) { // calibrating the backdrop (backdrop.go)
+		return
+	}
 	hit := e.hitTest(pos)
 	if hit.Kind != SelNone {
 		e.Select(hit)

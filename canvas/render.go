@@ -30,7 +30,9 @@ type editorRenderer struct {
 	e *Editor
 
 	bg        *fc.Rectangle
+	backdrop  backdropLayer // the traced site plan under everything (backdrop.go)
 	corridors corridorLayer
+	shapes    shapeLayer // closed and shaped corridors (render_shapes.go)
 	junctions junctionLayer
 	markers   markerLayer
 	agents    agentLayer
@@ -57,6 +59,7 @@ type frame struct {
 func newEditorRenderer(e *Editor) *editorRenderer {
 	r := &editorRenderer{e: e, bg: fc.NewRectangle(color.Transparent), grown: true}
 	r.junctions.init()
+	r.backdrop.init()
 	r.markers.init()
 	r.message.init()
 	r.help.init()
@@ -71,8 +74,9 @@ func (r *editorRenderer) Objects() []fyne.CanvasObject {
 	}
 	r.grown = false
 	c, j, m, ag := &r.corridors, &r.junctions, &r.markers, &r.agents
-	o := append(r.objects[:0], r.bg, m.corrHov, m.corrSel)
+	o := append(r.objects[:0], r.bg, r.backdrop.img, m.corrHov, m.corrSel)
 	o = appendAll(o, c.lines)
+	o = appendAll(o, r.shapes.segs)
 	o = appendAll(o, c.labels)
 	for _, t := range ag.trails {
 		o = appendAll(o, t.segs)
@@ -140,7 +144,9 @@ func (r *editorRenderer) update() {
 	f.textSize = theme.SizeForWidget(theme.SizeNameCaptionText, e)
 	r.bg.FillColor = f.bg
 	r.junctions.update(e, f, &r.grown)
+	r.backdrop.update(e)
 	r.corridors.update(e, f, &r.grown)
+	r.shapes.update(e, f, &r.grown)
 	r.markers.update(e, f, &r.grown)
 	r.agents.update(e, f, &r.grown)
 	r.message.update(e, f)
@@ -180,10 +186,12 @@ func (r *editorRenderer) Layout(size fyne.Size) {
 	f.begin(e, size)
 	// junctions, then labels placed greedily where they overlap no junction, marker, tag or earlier
 	// label (important ones first); labels that find no room hide. Corridor lengths come last.
+	r.backdrop.layout(e, f)
 	r.junctions.layoutMarks(e, f)
 	r.markers.reserve(e, f)
 	r.junctions.layoutLabels(e, f)
 	r.corridors.layout(e, f)
+	r.shapes.layout(e, f)
 	r.markers.layout(e, f)
 	r.agents.layout(e, f)
 	r.message.layout(e, f)

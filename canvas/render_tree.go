@@ -196,6 +196,9 @@ func (c *corridorLayer) layout(e *Editor, f *frame) {
 		if !l.Hidden {
 			placeLine(l, a, b)
 		}
+		if shaped(e, i) {
+			l.Hidden = true // drawn dashed or along its path by the shape layer (render_shapes.go)
+		}
 		mid := geom.Lerp(a, b, 0.5)
 		length := geom.Dist(a, b)
 		t.Hidden = true

@@ -117,5 +117,21 @@ func ParseModel(s string) (Model, error) {
 			return m, nil
 		}
 	}
-	return 0, fmt.Errorf("engine: model: %q: want radio or face-to-face", s)
+	return 0, fmt.Errorf("engine: model: %q: want %s", s, modelNames())
+}
+
+// modelNames lists the model names for messages: "radio or face-to-face".
+func modelNames() string {
+	out := ""
+	for i, m := range Models {
+		switch {
+		case i == 0:
+		case i == len(Models)-1:
+			out += " or "
+		default:
+			out += ", "
+		}
+		out += m.String()
+	}
+	return out
 }

@@ -33,5 +33,5 @@ func TestModelValues(t *testing.T) {
 	require.False(t, engine.FaceToFace.Instant())
 	require.Equal(t, "Model(7)", engine.Model(7).String())
 	_, err := engine.ParseModel("semaphore")
-	require.ErrorContains(t, err, `"semaphore"`)
+	require.EqualError(t, err, `engine: model: "semaphore": want radio or face-to-face`)
 }

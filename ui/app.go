@@ -103,6 +103,7 @@ func newApp(a fyne.App, w fyne.Window, path string, opt options) *App {
 	app.updateTitle()
 	app.refreshInspector()
 	app.planAtStart()
+	app.loadBackdrop() // backdrop.go
 	if loadErr != nil {
 		app.showError("Could not open the file; the demo site is open instead", loadErr)
 	} else {
@@ -188,6 +189,7 @@ func (a *App) setScenario(sc engine.Scenario, path string, dirty bool) {
 	a.playback.t = 0
 	a.path = path
 	a.editor.SetScenario(sc)
+	a.loadBackdrop() // backdrop.go
 	a.editor.Select(canvas.Selection{Kind: canvas.SelNone})
 	a.fit.fitNow()
 	a.setDirty(dirty)

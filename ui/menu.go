@@ -141,6 +141,14 @@ func (a *App) mainMenu() *fyne.MainMenu {
 		item("Save", ctrl(fyne.KeyS), func() { a.save(nil) }),
 		item("Save as…", ctrlShift(fyne.KeyS), func() { a.saveAs(nil) }),
 		fyne.NewMenuItemSeparator(),
+		fyne.NewMenuItem("Import GeoJSON or CSV…", a.importDialog), // importexport.go
+		fyne.NewMenuItem("Export GeoJSON…", a.exportDialog),
+		fyne.NewMenuItemSeparator(),
+		fyne.NewMenuItem("Backdrop image…", a.backdropDialog), // backdrop.go
+		fyne.NewMenuItem("Calibrate backdrop…", a.calibrateBackdrop),
+		fyne.NewMenuItem("Backdrop opacity…", a.backdropOpacity),
+		fyne.NewMenuItem("Remove backdrop", a.removeBackdrop),
+		fyne.NewMenuItemSeparator(),
 		item("Print itinerary…", ctrl(fyne.KeyP), a.printItinerary),
 		fyne.NewMenuItem("Export briefing…", a.exportBriefing),
 		fyne.NewMenuItem("Export picture…", a.exportPicture),
